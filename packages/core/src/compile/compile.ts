@@ -1,0 +1,554 @@
+/**
+ * The compile step: from a resolved scenario to a Plan of flat typed arrays. Every check, lookup,
+ * plugin setup and allocation happens here, before the first step; the stepping kernel then reads
+ * the arrays through precomputed offsets only.
+ */
+import { LuDecomposition, Matrix, inverse } from 'ml-matrix';
+import { badInput, bug, PluginError, singularJunction, SkeinError } from '../errors.ts';
+import { decomposeLine, type ModalLine } from '../line/modal.ts';
+import type { ResolvedJunction, ResolvedPart, ResolvedScenario } from '../model.ts';
+import type { LinearLoadInstance, LoadInstance, SetupContext, WaveformInstance } from '../plugins/api.ts';
+import type { PluginRegistry } from '../plugins/registry.ts';
+import { formatQuantity } from '../units.ts';
+
+/** Delay of one mode of one line, as the run quantises it. */
+export interface DelayInfo {
+  line: string;
+  mode: number;
+  velocityMps: number;
+  delayS: number;
+  /** Whole steps k and fraction f: delay = (k + f) dt (f = 0 when rounded). */
+  k: number;
+  f: number;
+  /** |delay used - true delay| [s] (nonzero only with time.delays: round). */
+  timingErrorS: number;
+  /**
+   * Amplitude error of the linear delay interpolation at the sources' bandwidth (0.35 / shortest
+   * feature): 1 - |1 - f + f exp(-j w dt)|.
+   */
+  interpolationLoss: number;
+}
+
+/** How each lumped part takes part in a step. */
+export interface CompiledPart {
+  index: number;
+  part: ResolvedPart;
+  /** 'norton': voltage drive with series R; 'vsource': ideal voltage drive; 'isource': current drive. */
+  mode: 'norton' | 'vsource' | 'isource' | 'linear' | 'short';
+  /** Global x index of the plus and minus nodes (-1: reference). */
+  xPlus: number;
+  xMinus: number;
+  /** Global x index of the constraint current (vsource, short), else -1. */
+  xConstraint: number;
+  /** Conductance used for the branch current [S]. */
+  g: number;
+  /** Slot holding the waveform value (sources) or history current (linear loads with history), else -1. */
+  slot: number;
+  load: LoadInstance | undefined;
+  waveform: number;
+}
+
+/** A waveform evaluated once per step into a slot. */
+export interface CompiledWaveform {
+  type: string;
+  instance: WaveformInstance;
+  slot: number;
+  parts: string[];
+}
+
+/** A junction whose matrix changes with time (a switch). */
+export interface VaryingJunction {
+  junction: number;
+  /** Base matrix without the varying loads, (R x R) row-major. */
+  base: Float64Array;
+  /** Scratch for base + stamps, inverted in place. */
+  assembled: Float64Array;
+  R: number;
+  loads: Array<{ part: CompiledPart; instance: LinearLoadInstance; rowPlus: number; rowMinus: number; g: number }>;
+}
+
+/** Everything a run needs, as flat arrays plus the per-run plugin objects. */
+export interface Plan {
+  scenario: ResolvedScenario;
+  dtS: number;
+  nSteps: number;
+  recordEvery: number;
+  nSamples: number;
+  modal: ModalLine[];
+  delays: DelayInfo[];
+  warnings: string[];
+  nJunctions: number;
+  /** Junction j owns modal ports [jPort[j], jPort[j+1]) and x entries [jX[j], jX[j+1]). */
+  jPort: Int32Array;
+  jX: Int32Array;
+  jN: Int32Array;
+  jB: Int32Array;
+  jK: Int32Array;
+  jA: Int32Array;
+  jEx: Int32Array;
+  /** 1 where every line end at the junction has one conductor (fast path). */
+  jScalar: Uint8Array;
+  nPorts: number;
+  pIn: Int32Array;
+  pInMask: Int32Array;
+  pK: Int32Array;
+  pF: Float64Array;
+  pOut: Int32Array;
+  pOutMask: Int32Array;
+  /** Scalar path: local node of the port and 2 / Z. */
+  pNode: Int32Array;
+  pY2: Float64Array;
+  pLine: Int32Array;
+  pEnd: Uint8Array;
+  pMode: Int32Array;
+  /** First modal port of line l at end e: lineEndPort[2 l + e]. */
+  lineEndPort: Int32Array;
+  /** Global x index of the node that conductor k of line l at end e sits on: conductorX[lineCondOff[l] * 2 + e * n + k]. */
+  conductorX: Int32Array;
+  lineCondOff: Int32Array;
+  /** Forward (written at the from end) and backward ring buffer of each line mode: offsets and masks. */
+  fwdOff: Int32Array;
+  bwdOff: Int32Array;
+  ringMask: Int32Array;
+  /** First mode of line l in the per-mode arrays. */
+  lineModeOff: Int32Array;
+  exRow: Int32Array;
+  exSlot: Int32Array;
+  exCoef: Float64Array;
+  slot: Float64Array;
+  mat: Float64Array;
+  wave: Float64Array;
+  rhs: Float64Array;
+  inc: Float64Array;
+  x: Float64Array;
+  parts: CompiledPart[];
+  waveforms: CompiledWaveform[];
+  /** Loads whose history or accept hook runs each step. */
+  historyLoads: CompiledPart[];
+  acceptLoads: CompiledPart[];
+  varying: VaryingJunction[];
+  /** Scratch for re-factoring a varying junction. */
+  work: Float64Array;
+}
+
+/** Options of the compile step. */
+export interface CompileOptions {
+  registry: PluginRegistry;
+  /** Collects warnings; default: into plan.warnings only. */
+  onWarning?: (message: string) => void;
+}
+
+const MIN_DELAY_STEPS = 1;
+
+function nextPow2(x: number): number {
+  let p = 1;
+  while (p < x) p <<= 1;
+  return p;
+}
+
+/**
+ * Compiles a resolved scenario: modal decomposition, time step, delays, junction matrices, plugin
+ * instances and all flat arrays.
+ * @throws InputError for a time step longer than a line delay; NumericalError for a singular junction;
+ *   PluginError when a plugin's setup fails.
+ */
+export async function compileScenario(scenario: ResolvedScenario, options: CompileOptions): Promise<Plan> {
+  const warnings: string[] = [];
+  const warn = (m: string): void => {
+    warnings.push(m);
+    options.onWarning?.(m);
+  };
+  const { registry } = options;
+  const modal = scenario.lines.map((l) => decomposeLine(l.L, l.C));
+
+  // Shortest delay per line mode.
+  let minDelay = Infinity;
+  let minWhere = '';
+  scenario.lines.forEach((l, i) => {
+    modal[i].velocities.forEach((v, m) => {
+      const d = l.lengthM / v;
+      if (d < minDelay) {
+        minDelay = d;
+        minWhere = `line ${l.id}, mode ${m + 1}`;
+      }
+    });
+  });
+
+  // Sources first (their shortest feature sets the automatic step), all in scenario order.
+  const provisionalDt = scenario.time.stepS ?? minDelay;
+  const ctxFor = (id: string, dtS: number): SetupContext => ({ dtS, endS: scenario.time.endS, id, warn: (m) => warn(`${id}: ${m}`) });
+  const waveformKeys = new Map<string, number>();
+  const waveformDefs: Array<{ type: string; params: Record<string, unknown>; parts: string[] }> = [];
+  const partWaveform = new Map<string, number>();
+  for (const j of scenario.junctions) {
+    for (const p of j.parts) {
+      if (p.role !== 'source') continue;
+      const key = `${p.type}:${JSON.stringify(p.params)}`;
+      let w = waveformKeys.get(key);
+      if (w === undefined) {
+        w = waveformDefs.length;
+        waveformKeys.set(key, w);
+        waveformDefs.push({ type: p.type, params: p.params, parts: [] });
+      }
+      waveformDefs[w].parts.push(p.id);
+      partWaveform.set(p.id, w);
+    }
+  }
+  const waveformInstances: WaveformInstance[] = [];
+  for (const def of waveformDefs) {
+    const plugin = registry.sources.get(def.type)?.plugin;
+    if (!plugin) throw bug(`source type ${def.type} passed resolution but is not registered`);
+    try {
+      waveformInstances.push(await plugin.create(def.params as never, ctxFor(def.parts.join(','), provisionalDt)));
+    } catch (e) {
+      throw new PluginError(def.type, 'create', e, { part: def.parts.join(', ') });
+    }
+  }
+
+  // Time step.
+  let dtS: number;
+  if (scenario.time.stepS !== undefined) {
+    dtS = scenario.time.stepS;
+    if (dtS > minDelay * (1 + 1e-12)) {
+      throw badInput(['time', 'step'], `must be at most the shortest line delay, ${formatQuantity(minDelay, 's')} (${minWhere})`, formatQuantity(dtS, 's'), 'E_STEP_TOO_LONG', {
+        file: scenario.file,
+      });
+    }
+  } else {
+    let feature = Infinity;
+    for (const w of waveformInstances) if (w.shortestFeatureS !== undefined && w.shortestFeatureS > 0) feature = Math.min(feature, w.shortestFeatureS);
+    let target = Math.min(minDelay / MIN_DELAY_STEPS, feature / scenario.time.stepsPerFeature, scenario.time.endS / 100);
+    target = Math.max(target, scenario.time.endS / 5e7);
+    const stepsInMin = Math.max(1, Math.ceil(minDelay / target - 1e-9));
+    dtS = minDelay / stepsInMin;
+  }
+  const nSteps = Math.max(1, Math.round(scenario.time.endS / dtS));
+  const recordEvery = scenario.time.recordEvery;
+  const nSamples = Math.floor(nSteps / recordEvery) + 1;
+  let bandwidth = Infinity;
+  for (const w of waveformInstances) if (w.shortestFeatureS) bandwidth = Math.min(bandwidth, w.shortestFeatureS);
+  const fBw = Number.isFinite(bandwidth) ? 0.35 / bandwidth : 0.1 / dtS;
+
+  // Delays and ring buffers.
+  const delays: DelayInfo[] = [];
+  const lineModeOff = new Int32Array(scenario.lines.length + 1);
+  scenario.lines.forEach((l, i) => { lineModeOff[i + 1] = lineModeOff[i] + modal[i].n; });
+  const nModes = lineModeOff[scenario.lines.length];
+  const fwdOff = new Int32Array(nModes);
+  const bwdOff = new Int32Array(nModes);
+  const ringMask = new Int32Array(nModes);
+  const modeK = new Int32Array(nModes);
+  const modeF = new Float64Array(nModes);
+  let waveLen = 0;
+  scenario.lines.forEach((l, i) => {
+    modal[i].velocities.forEach((v, m) => {
+      const d = l.lengthM / v;
+      const steps = d / dtS;
+      let k: number;
+      let f: number;
+      if (scenario.time.delays === 'round') {
+        k = Math.max(MIN_DELAY_STEPS, Math.round(steps));
+        f = 0;
+      } else {
+        k = Math.floor(steps + 1e-9);
+        f = steps - k;
+        if (f < 1e-9) f = 0;
+        if (k < MIN_DELAY_STEPS) {
+          throw bug(`delay of ${l.id} mode ${m + 1} is ${steps} steps although the step was checked against the shortest delay`);
+        }
+      }
+      const q = lineModeOff[i] + m;
+      modeK[q] = k;
+      modeF[q] = f;
+      const len = nextPow2(k + 2);
+      ringMask[q] = len - 1;
+      fwdOff[q] = waveLen;
+      waveLen += len;
+      bwdOff[q] = waveLen;
+      waveLen += len;
+      const wdt = 2 * Math.PI * fBw * dtS;
+      const re = 1 - f + f * Math.cos(wdt);
+      const im = -f * Math.sin(wdt);
+      delays.push({
+        line: l.id, mode: m + 1, velocityMps: v, delayS: d, k, f,
+        timingErrorS: Math.abs((k + f) * dtS - d),
+        interpolationLoss: 1 - Math.hypot(re, im),
+      });
+    });
+  });
+  const worstLoss = Math.max(0, ...delays.map((d) => d.interpolationLoss));
+  if (worstLoss > 0.01) {
+    warn(`delay interpolation attenuates the sources' bandwidth (${formatQuantity(fBw, 'Hz')}) by up to ${(worstLoss * 100).toFixed(2)} %; a shorter time.step or lengths that are whole multiples of it reduce this`);
+  }
+  if (scenario.time.delays === 'round') {
+    const worst = delays.reduce((a, d) => (d.timingErrorS / d.delayS > a.timingErrorS / a.delayS ? d : a), delays[0]);
+    if (worst.timingErrorS / worst.delayS > 0.01) warn(`rounding delays to whole steps changes ${worst.line} mode ${worst.mode} by ${((worst.timingErrorS / worst.delayS) * 100).toFixed(2)} %`);
+  }
+
+  // Ports, in junction order; each junction's line ends in the order they were wired.
+  const nJ = scenario.junctions.length;
+  const jPort = new Int32Array(nJ + 1);
+  const jX = new Int32Array(nJ + 1);
+  const jN = new Int32Array(nJ);
+  const jB = new Int32Array(nJ);
+  const jK = new Int32Array(nJ);
+  const jA = new Int32Array(nJ);
+  const jEx = new Int32Array(nJ + 1);
+  const jScalar = new Uint8Array(nJ);
+  const lineEndPort = new Int32Array(scenario.lines.length * 2).fill(-1);
+  const lineCondOff = new Int32Array(scenario.lines.length + 1);
+  scenario.lines.forEach((l, i) => { lineCondOff[i + 1] = lineCondOff[i] + l.conductors.length; });
+  const conductorX = new Int32Array(lineCondOff[scenario.lines.length] * 2).fill(-1);
+
+  interface EndRef { line: number; end: 0 | 1; nodes: Int32Array }
+  const junctionEnds: EndRef[][] = scenario.junctions.map((j) => {
+    const ends: EndRef[] = [];
+    for (const p of j.ports) {
+      let e = ends.find((x) => x.line === p.line && x.end === p.end);
+      if (!e) {
+        e = { line: p.line, end: p.end, nodes: new Int32Array(scenario.lines[p.line].conductors.length).fill(-1) };
+        ends.push(e);
+      }
+      e.nodes[p.conductor] = p.node;
+    }
+    return ends;
+  });
+
+  // Constraint rows (ideal voltage drives, shorts) per junction.
+  const loadInstances = new Map<string, LoadInstance>();
+  for (const j of scenario.junctions) {
+    for (const p of j.parts) {
+      if (p.role !== 'load') continue;
+      const plugin = registry.loads.get(p.type)?.plugin;
+      if (!plugin) throw bug(`load type ${p.type} passed resolution but is not registered`);
+      let inst: LoadInstance;
+      try {
+        inst = await plugin.create(p.params as never, ctxFor(p.id, dtS));
+      } catch (e) {
+        throw new PluginError(p.type, 'create', e, { part: p.id });
+      }
+      if (inst.kind === 'nonlinear') {
+        throw new SkeinError('E_NONLINEAR_UNSUPPORTED', `part ${p.id} (load ${p.type}) is nonlinear; this engine version solves linear junctions only`, { part: p.id, plugin: p.type });
+      }
+      if (inst.kind === 'linear' && !(inst.conductanceS >= 0 && Number.isFinite(inst.conductanceS))) {
+        throw new PluginError(p.type, 'create', new Error(`companion conductance must be finite and non-negative, got ${inst.conductanceS}`), { part: p.id });
+      }
+      loadInstances.set(p.id, inst);
+    }
+  }
+
+  let nPorts = 0;
+  let nX = 0;
+  let nEx = 0;
+  let matLen = 0;
+  let maxR = 0;
+  const jRows: number[] = [];
+  scenario.junctions.forEach((j, ji) => {
+    let M = 0;
+    for (const e of junctionEnds[ji]) M += modal[e.line].n;
+    const Q = j.parts.filter((p) => (p.role === 'source' && p.drive === 'voltage' && p.resistanceOhm === 0) || loadInstances.get(p.id)?.kind === 'short').length;
+    const N = j.nodes.length;
+    const R = N + Q;
+    jRows.push(R);
+    maxR = Math.max(maxR, R);
+    jPort[ji] = nPorts;
+    nPorts += M;
+    jX[ji] = nX;
+    nX += R;
+    jN[ji] = N;
+    jB[ji] = matLen;
+    matLen += R * M;
+    jK[ji] = matLen;
+    matLen += R * R;
+    jA[ji] = matLen;
+    matLen += M * N;
+    jScalar[ji] = junctionEnds[ji].every((e) => modal[e.line].n === 1) ? 1 : 0;
+  });
+  jPort[nJ] = nPorts;
+  jX[nJ] = nX;
+
+  const pIn = new Int32Array(nPorts);
+  const pInMask = new Int32Array(nPorts);
+  const pK = new Int32Array(nPorts);
+  const pF = new Float64Array(nPorts);
+  const pOut = new Int32Array(nPorts);
+  const pOutMask = new Int32Array(nPorts);
+  const pNode = new Int32Array(nPorts);
+  const pY2 = new Float64Array(nPorts);
+  const pLine = new Int32Array(nPorts);
+  const pEnd = new Uint8Array(nPorts);
+  const pMode = new Int32Array(nPorts);
+  const mat = new Float64Array(matLen);
+
+  // Parts: slots and excitation entries.
+  const parts: CompiledPart[] = [];
+  const exRowL: number[] = [];
+  const exSlotL: number[] = [];
+  const exCoefL: number[] = [];
+  let nSlots = waveformDefs.length;
+  const varying: VaryingJunction[] = [];
+
+  for (let ji = 0; ji < nJ; ji++) {
+    const j = scenario.junctions[ji];
+    const R = jRows[ji];
+    const N = j.nodes.length;
+    const A = new Float64Array(R * R);
+    const stamp = (a: number, b: number, g: number): void => {
+      if (a >= 0) A[a * R + a] += g;
+      if (b >= 0) A[b * R + b] += g;
+      if (a >= 0 && b >= 0) {
+        A[a * R + b] -= g;
+        A[b * R + a] -= g;
+      }
+    };
+    // Line ends.
+    let q = jPort[ji];
+    for (const e of junctionEnds[ji]) {
+      const ml = modal[e.line];
+      const n = ml.n;
+      lineEndPort[2 * e.line + e.end] = q;
+      for (let k = 0; k < n; k++) conductorX[lineCondOff[e.line] * 2 + e.end * n + k] = jX[ji] + e.nodes[k];
+      for (let a = 0; a < n; a++) for (let b = 0; b < n; b++) A[e.nodes[a] * R + e.nodes[b]] += ml.Yc[a * n + b];
+      for (let m = 0; m < n; m++) {
+        const mode = lineModeOff[e.line] + m;
+        const p = q + m;
+        pLine[p] = e.line;
+        pEnd[p] = e.end;
+        pMode[p] = m;
+        pK[p] = modeK[mode];
+        pF[p] = modeF[mode];
+        pIn[p] = e.end === 0 ? bwdOff[mode] : fwdOff[mode];
+        pOut[p] = e.end === 0 ? fwdOff[mode] : bwdOff[mode];
+        pInMask[p] = ringMask[mode];
+        pOutMask[p] = ringMask[mode];
+        pNode[p] = n === 1 ? e.nodes[0] : -1;
+        pY2[p] = n === 1 ? 2 / ml.Zm[0] : 0;
+      }
+      q += n;
+    }
+    // B (line-end Norton sources) and A (emitted waves), see junctionStep.ts.
+    const M = jPort[ji + 1] - jPort[ji];
+    q = 0;
+    for (const e of junctionEnds[ji]) {
+      const ml = modal[e.line];
+      const n = ml.n;
+      for (let k = 0; k < n; k++) {
+        for (let m = 0; m < n; m++) {
+          mat[jB[ji] + e.nodes[k] * M + (q + m)] += (2 * ml.Ti[k * n + m]) / ml.Zm[m];
+          mat[jA[ji] + (q + m) * N + e.nodes[k]] += ml.TvInv[m * n + k];
+        }
+      }
+      q += n;
+    }
+    // Lumped parts.
+    let nextConstraint = N;
+    const exStart = exRowL.length;
+    const varyingLoads: VaryingJunction['loads'] = [];
+    for (const p of j.parts) {
+      const xPlus = p.plus >= 0 ? jX[ji] + p.plus : -1;
+      const xMinus = p.minus >= 0 ? jX[ji] + p.minus : -1;
+      const cp: CompiledPart = { index: parts.length, part: p, mode: 'linear', xPlus, xMinus, xConstraint: -1, g: 0, slot: -1, load: undefined, waveform: -1 };
+      const addEx = (row: number, slot: number, coef: number): void => {
+        if (row < 0) return;
+        exRowL.push(row);
+        exSlotL.push(slot);
+        exCoefL.push(coef);
+      };
+      const constraintRow = (): number => {
+        const r = nextConstraint++;
+        if (p.plus >= 0) { A[p.plus * R + r] += 1; A[r * R + p.plus] += 1; }
+        if (p.minus >= 0) { A[p.minus * R + r] -= 1; A[r * R + p.minus] -= 1; }
+        return r;
+      };
+      if (p.role === 'source') {
+        const w = partWaveform.get(p.id)!;
+        cp.waveform = w;
+        cp.slot = w;
+        if (p.drive === 'voltage' && p.resistanceOhm === 0) {
+          cp.mode = 'vsource';
+          const r = constraintRow();
+          cp.xConstraint = jX[ji] + r;
+          addEx(r, w, 1);
+        } else if (p.drive === 'voltage') {
+          cp.mode = 'norton';
+          cp.g = 1 / p.resistanceOhm;
+          stamp(p.plus, p.minus, cp.g);
+          addEx(p.plus, w, cp.g);
+          addEx(p.minus, w, -cp.g);
+        } else {
+          cp.mode = 'isource';
+          cp.g = Number.isFinite(p.resistanceOhm) ? 1 / p.resistanceOhm : 0;
+          if (cp.g > 0) stamp(p.plus, p.minus, cp.g);
+          addEx(p.plus, w, 1);
+          addEx(p.minus, w, -1);
+        }
+      } else {
+        const inst = loadInstances.get(p.id)!;
+        cp.load = inst;
+        if (inst.kind === 'short') {
+          cp.mode = 'short';
+          const r = constraintRow();
+          cp.xConstraint = jX[ji] + r;
+        } else if (inst.kind === 'linear') {
+          cp.mode = 'linear';
+          cp.g = inst.conductanceS;
+          if (inst.conductanceAt) {
+            varyingLoads.push({ part: cp, instance: inst, rowPlus: p.plus, rowMinus: p.minus, g: inst.conductanceS });
+          } else {
+            stamp(p.plus, p.minus, cp.g);
+          }
+          if (inst.history) {
+            cp.slot = nSlots++;
+            addEx(p.plus, cp.slot, -1);
+            addEx(p.minus, cp.slot, 1);
+          }
+        }
+      }
+      parts.push(cp);
+    }
+    jEx[ji] = exStart;
+    jEx[ji + 1] = exRowL.length;
+    if (varyingLoads.length > 0) {
+      varying.push({ junction: ji, base: A.slice(), assembled: new Float64Array(R * R), R, loads: varyingLoads });
+      for (const v of varyingLoads) stamp(v.rowPlus, v.rowMinus, v.g);
+    }
+    invertJunction(j, A, R, mat, jK[ji]);
+  }
+
+  const historyLoads = parts.filter((p) => p.load?.kind === 'linear' && p.load.history !== undefined);
+  const acceptLoads = parts.filter((p) => p.load !== undefined && 'accept' in p.load && p.load.accept !== undefined);
+
+  return {
+    scenario, dtS, nSteps, recordEvery, nSamples, modal, delays, warnings,
+    nJunctions: nJ, jPort, jX, jN, jB, jK, jA, jEx, jScalar,
+    nPorts, pIn, pInMask, pK, pF, pOut, pOutMask, pNode, pY2, pLine, pEnd, pMode,
+    lineEndPort, conductorX, lineCondOff, fwdOff, bwdOff, ringMask, lineModeOff,
+    exRow: Int32Array.from(exRowL), exSlot: Int32Array.from(exSlotL), exCoef: Float64Array.from(exCoefL),
+    slot: new Float64Array(nSlots),
+    mat, wave: new Float64Array(waveLen), rhs: new Float64Array(Math.max(1, maxR)), inc: new Float64Array(nPorts), x: new Float64Array(nX),
+    parts,
+    waveforms: waveformDefs.map((d, i) => ({ type: d.type, instance: waveformInstances[i], slot: i, parts: d.parts })),
+    historyLoads, acceptLoads, varying,
+    work: new Float64Array(Math.max(1, 2 * maxR * maxR)),
+  };
+}
+
+function invertJunction(j: ResolvedJunction, A: Float64Array, R: number, mat: Float64Array, off: number): void {
+  const m = new Matrix(R, R);
+  let scale = 0;
+  for (let a = 0; a < R; a++) for (let b = 0; b < R; b++) {
+    m.set(a, b, A[a * R + b]);
+    scale = Math.max(scale, Math.abs(A[a * R + b]));
+  }
+  const lu = new LuDecomposition(m);
+  let minPivot = Infinity;
+  const U = lu.upperTriangularMatrix;
+  for (let a = 0; a < R; a++) minPivot = Math.min(minPivot, Math.abs(U.get(a, a)));
+  if (lu.isSingular() || !(minPivot > 1e-13 * scale)) {
+    // Name the node that has no conductance to anything.
+    const lonely = j.nodes.filter((_, k) => A[k * R + k] === 0);
+    throw singularJunction(j.id, lonely.length > 0 ? `node ${lonely.join(', ')} has no conductance to anything` : 'a loop of ideal sources or shorts, or a node group with no path to the reference');
+  }
+  const K = inverse(m);
+  for (let a = 0; a < R; a++) for (let b = 0; b < R; b++) mat[off + a * R + b] = K.get(a, b);
+}

@@ -1,0 +1,53 @@
+/**
+ * Dense inversion by Gauss-Jordan elimination with partial pivoting, in place and without
+ * allocation, for re-factoring a junction during stepping (a switch changed state). ml-matrix
+ * inverts at compile time; this loop exists because the step phase must not allocate. Tested
+ * against ml-matrix's inverse.
+ */
+
+/**
+ * Inverts the n x n row-major matrix held in a[off .. off + n*n) into out[outOff ..].
+ * @param work scratch of at least 2 n^2 values.
+ * @returns the smallest pivot magnitude relative to the largest entry (0 when singular).
+ */
+export function invertInPlace(n: number, a: Float64Array, off: number, out: Float64Array, outOff: number, work: Float64Array): number {
+  const w = 2 * n;
+  let maxAbs = 0;
+  for (let i = 0; i < n; i++) {
+    for (let j = 0; j < n; j++) {
+      const v = a[off + i * n + j];
+      work[i * w + j] = v;
+      work[i * w + n + j] = i === j ? 1 : 0;
+      if (Math.abs(v) > maxAbs) maxAbs = Math.abs(v);
+    }
+  }
+  if (maxAbs === 0) return 0;
+  let minPivot = Infinity;
+  for (let c = 0; c < n; c++) {
+    let piv = c;
+    let best = Math.abs(work[c * w + c]);
+    for (let r = c + 1; r < n; r++) {
+      const v = Math.abs(work[r * w + c]);
+      if (v > best) { best = v; piv = r; }
+    }
+    if (best / maxAbs < minPivot) minPivot = best / maxAbs;
+    if (best === 0) return 0;
+    if (piv !== c) {
+      for (let j = 0; j < w; j++) {
+        const t = work[c * w + j];
+        work[c * w + j] = work[piv * w + j];
+        work[piv * w + j] = t;
+      }
+    }
+    const inv = 1 / work[c * w + c];
+    for (let j = 0; j < w; j++) work[c * w + j] *= inv;
+    for (let r = 0; r < n; r++) {
+      if (r === c) continue;
+      const fct = work[r * w + c];
+      if (fct === 0) continue;
+      for (let j = 0; j < w; j++) work[r * w + j] -= fct * work[c * w + j];
+    }
+  }
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[outOff + i * n + j] = work[i * w + n + j];
+  return minPivot;
+}

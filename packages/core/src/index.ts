@@ -1,0 +1,32 @@
+/**
+ * @skein/core: the network model, validation, the time-domain solver, the plugin API and the
+ * results format. It names no concrete waveform, device or probe: those are plugins.
+ */
+export {
+  SkeinError, InputError, NumericalError, PluginError, badInput, formatPath,
+  type DocPath, type SourceLocation,
+} from './errors.ts';
+export { parseQuantity, formatQuantity, quantityName, unitExample, type UnitSymbol } from './units.ts';
+export {
+  defineSource, defineLoad, defineProbe, HOOK_NAMES,
+  type ParamSpec, type ParamSchema, type ParamValues, type SetupContext, type WaveformInstance, type SourcePlugin,
+  type LinearLoadInstance, type ShortLoadInstance, type NonlinearLoadInstance, type LoadInstance, type LoadPlugin,
+  type ProbeSetupContext, type ProbeState, type ProbeInstance, type ProbePlugin, type StructuredOutput, type LedgerView,
+  type NodeHandle, type PortHandle, type PointHandle, type PartHandle, type TraceHandle, type AnyPlugin,
+} from './plugins/api.ts';
+export { PluginRegistry, loadPluginModules, resolvePluginSpecifier, isPlugin } from './plugins/registry.ts';
+export { parseLocatedDocument, plainDocument, type LocatedDocument } from './scenario/document.ts';
+export {
+  resolveScenarioText, resolveScenarioData, resolveScenarioDocument, digestOf, isPositiveDefinite,
+  SCENARIO_FORMAT_VERSION, REFERENCE_NODE,
+  type ResolveOptions, type SectionResolver, type SectionMatrices,
+} from './scenario/resolve.ts';
+export type { ResolvedScenario, ResolvedLine, ResolvedJunction, ResolvedPart, ResolvedPort, ResolvedProbe, ResolvedTime } from './model.ts';
+export { decomposeLine, type ModalLine } from './line/modal.ts';
+export { compileScenario, type Plan, type DelayInfo, type CompileOptions } from './compile/compile.ts';
+export { runScenario, runPlan, deriveLines, summariseNetwork, type RunOptions, type RunResult, type TracePeak, type LineDerived, type NetworkSummary } from './run/run.ts';
+export {
+  resultsDocument, encodeResults, decodeResults, readResults, writeResults, writeFileAtomic, float64ToBytes, bytesToFloat64,
+  RESULTS_FORMAT, RESULTS_VERSION, ENGINE_VERSION, type ResultsDocument, type LoadedResults,
+} from './results/format.ts';
+export { scenarioSchema } from './scenario/schema.ts';

@@ -1,0 +1,97 @@
+/**
+ * The resolved network: what a scenario means after validation, with every number in SI units,
+ * every name turned into an index and every plugin parameter checked. The compile step turns it
+ * into flat arrays; nothing after this point looks up a name.
+ */
+import type { DocPath } from './errors.ts';
+
+/** Time settings of a run. */
+export interface ResolvedTime {
+  /** End of the simulated interval [s]. */
+  endS: number;
+  /** Time step chosen by the user [s]; undefined means automatic. */
+  stepS: number | undefined;
+  /** Automatic step: steps across the fastest source feature (default 10). */
+  stepsPerFeature: number;
+  /** Record every k-th step (default 1). */
+  recordEvery: number;
+  /** How a delay that is not a whole number of steps is handled. */
+  delays: 'interpolate' | 'round';
+}
+
+/** A uniform multiconductor line. Matrices are n x n, row-major, per metre. */
+export interface ResolvedLine {
+  id: string;
+  index: number;
+  /** Junction index at z = 0 and at z = length. */
+  from: number;
+  to: number;
+  lengthM: number;
+  conductors: string[];
+  /** Inductance [H/m] and capacitance [F/m], symmetric positive definite. */
+  L: Float64Array;
+  C: Float64Array;
+  /** Resistance [ohm/m] and conductance [S/m]; all zero for a lossless line. */
+  R: Float64Array;
+  G: Float64Array;
+  /** Where the line sits in the scenario document. */
+  path: DocPath;
+  /** How the matrices were obtained, for reports. */
+  origin: string;
+}
+
+/** A line-end conductor wired to a junction node. */
+export interface ResolvedPort {
+  line: number;
+  end: 0 | 1;
+  conductor: number;
+  node: number;
+}
+
+/** A lumped part between two nodes of a junction (node -1 is the reference). */
+export interface ResolvedPart {
+  id: string;
+  junction: number;
+  role: 'source' | 'load';
+  /** Plugin type name. */
+  type: string;
+  plus: number;
+  minus: number;
+  /** Plugin parameters in SI units. */
+  params: Record<string, unknown>;
+  /** Sources only: what the waveform drives. */
+  drive: 'voltage' | 'current';
+  /** Sources only: series resistance of a voltage drive, parallel of a current drive [ohm] (Infinity: none). */
+  resistanceOhm: number;
+  path: DocPath;
+}
+
+/** A junction: nodes, the line-end conductors on them, and lumped parts. */
+export interface ResolvedJunction {
+  id: string;
+  index: number;
+  nodes: string[];
+  ports: ResolvedPort[];
+  parts: ResolvedPart[];
+  path: DocPath;
+}
+
+/** A probe: plugin type and its parameters. */
+export interface ResolvedProbe {
+  id: string;
+  type: string;
+  params: Record<string, unknown>;
+  path: DocPath;
+}
+
+/** A whole scenario after validation. */
+export interface ResolvedScenario {
+  title: string;
+  file: string | undefined;
+  time: ResolvedTime;
+  lines: ResolvedLine[];
+  junctions: ResolvedJunction[];
+  probes: ResolvedProbe[];
+  /** SHA-256 of the canonical resolved content (hex). */
+  digest: string;
+}

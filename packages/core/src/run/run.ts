@@ -1,0 +1,386 @@
+/**
+ * Runs a compiled plan: sets up probes, steps to the end, records traces, calls every finish
+ * hook (also after a failure) and returns the results.
+ */
+import ndarray, { type NdArray } from 'ndarray';
+import ops from 'ndarray-ops';
+import { compileScenario, type DelayInfo, type Plan } from '../compile/compile.ts';
+import { badInput, nonFinite, PluginError, SkeinError } from '../errors.ts';
+import type { ResolvedScenario } from '../model.ts';
+import type {
+  LedgerView, NodeHandle, PartHandle, PointHandle, PortHandle, ProbeInstance, ProbeSetupContext, ProbeState, StructuredOutput, TraceHandle,
+} from '../plugins/api.ts';
+import type { PluginRegistry } from '../plugins/registry.ts';
+import { accumulateLedger, createLedger, refreshLedgerView, type Ledger } from './ledger.ts';
+import { kernelRuns, phaseJunctions, phaseParts, phaseSources, phaseSwitches } from './step.ts';
+
+/** Options of a run. */
+export interface RunOptions {
+  registry: PluginRegistry;
+  /** Called about every 1 % of the steps with the fraction done. */
+  onProgress?: (fraction: number, step: number, nSteps: number) => void;
+  onWarning?: (message: string) => void;
+}
+
+/** Per-line derived data for summaries and reports. */
+export interface LineDerived {
+  id: string;
+  conductors: string[];
+  lengthM: number;
+  velocitiesMps: number[];
+  delaysS: number[];
+  modalImpedancesOhm: number[];
+  /** Characteristic impedance matrix, n x n row-major [ohm]. */
+  zcOhm: number[];
+  origin: string;
+}
+
+/** Peak of one trace. */
+export interface TracePeak {
+  trace: string;
+  unit: string;
+  max: number;
+  min: number;
+  /** Time of the largest magnitude [s]. */
+  atS: number;
+}
+
+/** What a run returns. Traces share one time axis: t_i = i * dt * recordEvery. */
+export interface RunResult {
+  title: string;
+  digest: string;
+  dtS: number;
+  nSteps: number;
+  recordEvery: number;
+  nSamples: number;
+  traceNames: string[];
+  traceUnits: string[];
+  traceProbes: string[];
+  /** Trace samples, [trace, sample] over one Float64Array. */
+  traces: NdArray<Float64Array>;
+  outputs: Record<string, StructuredOutput>;
+  peaks: TracePeak[];
+  ledger: { deliveredJ: number; absorbedJ: number; storedJ: number; residualJ: number } | undefined;
+  warnings: string[];
+  lines: LineDerived[];
+  delays: DelayInfo[];
+  /** Wall time per phase [s]. */
+  timing: Record<string, number>;
+  network: NetworkSummary;
+}
+
+/** A plain description of the network, kept in results for reports. */
+export interface NetworkSummary {
+  lines: Array<{ id: string; from: string; to: string; lengthM: number; conductors: string[] }>;
+  junctions: Array<{ id: string; nodes: string[]; parts: Array<{ id: string; role: string; type: string; between: [string, string] }> }>;
+  probes: Array<{ id: string; type: string }>;
+}
+
+interface PointRec { line: number; kf: Int32Array; ff: Float64Array; kb: Int32Array; fb: Float64Array }
+interface PortRec { line: number; end: number; conductor: number }
+
+const CHECK_EVERY = 1024;
+
+/**
+ * Validated scenario in, results out.
+ * @throws InputError, NumericalError, PluginError (see errors.ts).
+ */
+export async function runScenario(scenario: ResolvedScenario, options: RunOptions): Promise<RunResult> {
+  const t0 = performance.now();
+  const plan = await compileScenario(scenario, { registry: options.registry, onWarning: options.onWarning });
+  const compileS = (performance.now() - t0) / 1000;
+  return runPlan(plan, options, compileS);
+}
+
+/** Steps a compiled plan to its end. */
+export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Promise<RunResult> {
+  const sc = plan.scenario;
+  const warnings = plan.warnings;
+  const traceNames: string[] = [];
+  const traceUnits: string[] = [];
+  const traceProbes: string[] = [];
+  const points: PointRec[] = [];
+  const ports: PortRec[] = [];
+  let ledgerWanted = false;
+  const lineIndex = new Map(sc.lines.map((l) => [l.id, l.index]));
+  const partIndex = new Map(plan.parts.map((p) => [p.part.id, p.index]));
+  const probes: Array<{ id: string; type: string; inst: ProbeInstance }> = [];
+  let failure: unknown;
+  let finished = false;
+  const finishAll = (): Record<string, StructuredOutput> => {
+    const outputs: Record<string, StructuredOutput> = {};
+    if (finished) return outputs;
+    finished = true;
+    for (const w of plan.waveforms) safeFinish(() => w.instance.finish?.(failure), w.type, warnings);
+    for (const p of plan.parts) if (p.load) safeFinish(() => p.load!.finish?.(failure), p.part.type, warnings);
+    for (const p of probes) {
+      safeFinish(() => {
+        const out = p.inst.finish?.(failure);
+        if (out) outputs[p.id] = out;
+      }, p.type, warnings);
+    }
+    return outputs;
+  };
+
+  try {
+    for (const pr of sc.probes) {
+      const plugin = options.registry.probes.get(pr.type)!.plugin;
+      const fail = (param: string | undefined, rule: string, value: unknown): SkeinError =>
+        badInput(param ? [...pr.path, param] : pr.path, rule, value, 'E_PROBE_PLACE', { file: sc.file });
+      const ctx: ProbeSetupContext = {
+        dtS: plan.dtS,
+        endS: sc.time.endS,
+        id: pr.id,
+        warn: (m) => warnings.push(`${pr.id}: ${m}`),
+        partIds: plan.parts.map((p) => p.part.id),
+        node(ref, param) {
+          const [jid, node] = ref.split('.');
+          const j = sc.junctions.find((x) => x.id === jid);
+          if (!j) throw fail(param, `must name a node as "junction.node"; junctions: ${sc.junctions.map((x) => x.id).join(', ')}`, ref);
+          const k = j.nodes.indexOf(node);
+          if (k < 0) throw fail(param, `must name a node of junction ${jid}: ${j.nodes.join(', ')}`, ref);
+          return (plan.jX[j.index] + k) as NodeHandle;
+        },
+        lineEnd(line, end, conductor, param) {
+          const l = lineIndex.get(line);
+          if (l === undefined) throw fail(param, `must name a line: ${[...lineIndex.keys()].join(', ')}`, line);
+          const k = sc.lines[l].conductors.indexOf(conductor);
+          if (k < 0) throw fail(param, `must name a conductor of line ${line}: ${sc.lines[l].conductors.join(', ')}`, conductor);
+          ports.push({ line: l, end: end === 'from' ? 0 : 1, conductor: k });
+          return (ports.length - 1) as PortHandle;
+        },
+        linePoint(line, positionM, param) {
+          const l = lineIndex.get(line);
+          if (l === undefined) throw fail(param, `must name a line: ${[...lineIndex.keys()].join(', ')}`, line);
+          const len = sc.lines[l].lengthM;
+          if (!(positionM >= 0 && positionM <= len)) throw fail(param, `must lie on line ${line}, between 0 m and ${len} m`, positionM);
+          const ml = plan.modal[l];
+          const rec: PointRec = { line: l, kf: new Int32Array(ml.n), ff: new Float64Array(ml.n), kb: new Int32Array(ml.n), fb: new Float64Array(ml.n) };
+          for (let m = 0; m < ml.n; m++) {
+            const d = plan.delays[plan.lineModeOff[l] + m];
+            const total = d.k + d.f;
+            const sf = (positionM / len) * total;
+            const sb = total - sf;
+            rec.kf[m] = Math.floor(sf + 1e-9);
+            rec.ff[m] = Math.max(0, sf - rec.kf[m]);
+            rec.kb[m] = Math.floor(sb + 1e-9);
+            rec.fb[m] = Math.max(0, sb - rec.kb[m]);
+          }
+          points.push(rec);
+          return (points.length - 1) as PointHandle;
+        },
+        conductorsOf(line, param) {
+          const l = lineIndex.get(line);
+          if (l === undefined) throw fail(param, `must name a line: ${[...lineIndex.keys()].join(', ')}`, line);
+          return sc.lines[l].conductors;
+        },
+        part(id, param) {
+          const k = partIndex.get(id);
+          if (k === undefined) throw fail(param, `must name a part: ${[...partIndex.keys()].join(', ') || '(none)'}`, id);
+          return k as PartHandle;
+        },
+        trace(name, unit) {
+          traceNames.push(`${pr.id}.${name}`);
+          traceUnits.push(unit);
+          traceProbes.push(pr.id);
+          return (traceNames.length - 1) as TraceHandle;
+        },
+        useLedger() {
+          ledgerWanted = true;
+        },
+      };
+      let inst: ProbeInstance;
+      try {
+        inst = await plugin.create(pr.params as never, ctx);
+      } catch (e) {
+        if (e instanceof SkeinError) throw e;
+        throw new PluginError(pr.type, 'create', e, { part: pr.id });
+      }
+      probes.push({ id: pr.id, type: pr.type, inst });
+    }
+  } catch (e) {
+    failure = e;
+    finishAll();
+    throw e;
+  }
+
+  const nT = traceNames.length;
+  const traceData = new Float64Array(Math.max(1, nT * plan.nSamples));
+  const traces = ndarray(traceData, [nT, plan.nSamples]);
+  const partV = new Float64Array(plan.parts.length);
+  const partI = new Float64Array(plan.parts.length);
+  const partU = new Float64Array(plan.parts.length);
+  const ledger: Ledger | undefined = ledgerWanted ? createLedger(plan) : undefined;
+  const runs = kernelRuns(plan);
+  let step = 0;
+  let tS = 0;
+  let sample = 0;
+  const outVal = (p: number): number => plan.wave[plan.pOut[p] + (step & plan.pOutMask[p])];
+  const interp = (off: number, mask: number, k: number, f: number): number => {
+    const i1 = step - k;
+    return (1 - f) * plan.wave[off + (i1 & mask)] + (f > 0 ? f * plan.wave[off + ((i1 - 1) & mask)] : 0);
+  };
+  const pointWave = (h: PointHandle, k: number, current: boolean): number => {
+    const rec = points[h];
+    const ml = plan.modal[rec.line];
+    const n = ml.n;
+    let acc = 0;
+    for (let m = 0; m < n; m++) {
+      const q = plan.lineModeOff[rec.line] + m;
+      const a = interp(plan.fwdOff[q], plan.ringMask[q], rec.kf[m], rec.ff[m]);
+      const b = interp(plan.bwdOff[q], plan.ringMask[q], rec.kb[m], rec.fb[m]);
+      acc += current ? (ml.Ti[k * n + m] * (a - b)) / ml.Zm[m] : ml.Tv[k * n + m] * (a + b);
+    }
+    return acc;
+  };
+  const emptyLedger: LedgerView = {
+    delivered: new Map(), absorbed: new Map(), stored: new Map(), deliveredTotalJ: 0, absorbedTotalJ: 0, storedTotalJ: 0, residualJ: 0,
+  };
+  const state: ProbeState = Object.freeze({
+    get step() { return step; },
+    get tS() { return tS; },
+    nodeVoltage: (h: NodeHandle) => plan.x[h],
+    portVoltage: (h: PortHandle) => {
+      const r = ports[h];
+      const n = plan.modal[r.line].n;
+      return plan.x[plan.conductorX[plan.lineCondOff[r.line] * 2 + r.end * n + r.conductor]];
+    },
+    portCurrent: (h: PortHandle) => {
+      const r = ports[h];
+      const ml = plan.modal[r.line];
+      const n = ml.n;
+      const p0 = plan.lineEndPort[2 * r.line + r.end];
+      let acc = 0;
+      for (let m = 0; m < n; m++) acc += (ml.Ti[r.conductor * n + m] * (outVal(p0 + m) - plan.inc[p0 + m])) / ml.Zm[m];
+      return acc;
+    },
+    pointVoltage: (h: PointHandle, k: number) => pointWave(h, k, false),
+    pointCurrent: (h: PointHandle, k: number) => pointWave(h, k, true),
+    partVoltage: (h: PartHandle) => partV[h],
+    partCurrent: (h: PartHandle) => partI[h],
+    ledger: () => (ledger ? refreshLedgerView(plan, ledger, step) : emptyLedger),
+    record: (trace: TraceHandle, value: number) => { traceData[trace * plan.nSamples + sample] = value; },
+  });
+
+  const timing: Record<string, number> = { compile: compileS, sources: 0, switches: 0, junctions: 0, parts: 0, probes: 0 };
+  const progressEvery = Math.max(1, Math.floor(plan.nSteps / 100));
+  const tStart = performance.now();
+  try {
+    for (step = 0; step <= plan.nSteps; step++) {
+      tS = step * plan.dtS;
+      let t1 = performance.now();
+      phaseSources(plan, tS);
+      let t2 = performance.now();
+      timing.sources += t2 - t1;
+      if (plan.varying.length > 0) {
+        phaseSwitches(plan, tS);
+        t1 = performance.now();
+        timing.switches += t1 - t2;
+        t2 = t1;
+      }
+      phaseJunctions(plan, runs, step);
+      t1 = performance.now();
+      timing.junctions += t1 - t2;
+      phaseParts(plan, tS, partV, partI, partU);
+      if (ledger) accumulateLedger(plan, ledger, partV, partI, partU);
+      t2 = performance.now();
+      timing.parts += t2 - t1;
+      if (step % plan.recordEvery === 0) {
+        for (let k = 0; k < probes.length; k++) probes[k].inst.sample(state);
+        sample++;
+        timing.probes += performance.now() - t2;
+      }
+      if (step % CHECK_EVERY === 0 || step === plan.nSteps) checkFinite(plan, step, tS);
+      if (options.onProgress && step % progressEvery === 0) options.onProgress(step / plan.nSteps, step, plan.nSteps);
+    }
+  } catch (e) {
+    failure = e instanceof SkeinError ? e : new PluginError('(step)', 'step', e, { step, timeS: tS });
+    finishAll();
+    throw failure;
+  }
+  const loopS = (performance.now() - tStart) / 1000;
+  for (const k of Object.keys(timing)) if (k !== 'compile') timing[k] /= 1000;
+  timing.loop = loopS;
+  const outputs = finishAll();
+
+  const dtRec = plan.dtS * plan.recordEvery;
+  const peaks: TracePeak[] = traceNames.map((name, i) => {
+    const row = traces.pick(i, null);
+    const max = ops.sup(row);
+    const min = ops.inf(row);
+    const at = Math.abs(max) >= Math.abs(min) ? ops.argmax(row)[0] : ops.argmin(row)[0];
+    return { trace: name, unit: traceUnits[i], max, min, atS: at * dtRec };
+  });
+  let ledgerTotals: RunResult['ledger'];
+  if (ledger) {
+    const v = refreshLedgerView(plan, ledger, plan.nSteps);
+    ledgerTotals = { deliveredJ: v.deliveredTotalJ, absorbedJ: v.absorbedTotalJ, storedJ: v.storedTotalJ, residualJ: v.residualJ };
+  }
+  return {
+    title: sc.title,
+    digest: sc.digest,
+    dtS: plan.dtS,
+    nSteps: plan.nSteps,
+    recordEvery: plan.recordEvery,
+    nSamples: plan.nSamples,
+    traceNames, traceUnits, traceProbes, traces, outputs, peaks,
+    ledger: ledgerTotals,
+    warnings,
+    lines: deriveLines(plan),
+    delays: plan.delays,
+    timing,
+    network: summariseNetwork(sc),
+  };
+}
+
+function safeFinish(f: () => void, plugin: string, warnings: string[]): void {
+  try {
+    f();
+  } catch (e) {
+    warnings.push(`plugin ${plugin}, hook finish: ${(e as Error).message}`);
+  }
+}
+
+function checkFinite(plan: Plan, step: number, tS: number): void {
+  let s = 0;
+  const x = plan.x;
+  for (let i = 0; i < x.length; i++) s += x[i];
+  if (Number.isFinite(s)) return;
+  for (let j = 0; j < plan.nJunctions; j++) {
+    for (let i = plan.jX[j]; i < plan.jX[j + 1]; i++) {
+      if (!Number.isFinite(x[i])) {
+        const jn = plan.scenario.junctions[j];
+        const local = i - plan.jX[j];
+        throw nonFinite(step, tS, `junction ${jn.id}, ${local < jn.nodes.length ? `node ${jn.nodes[local]}` : 'a constraint current'}`);
+      }
+    }
+  }
+}
+
+/** Derived per-line data (velocities, delays, Zc). */
+export function deriveLines(plan: Plan): LineDerived[] {
+  return plan.scenario.lines.map((l, i) => ({
+    id: l.id,
+    conductors: l.conductors,
+    lengthM: l.lengthM,
+    velocitiesMps: Array.from(plan.modal[i].velocities),
+    delaysS: Array.from(plan.modal[i].velocities, (v) => l.lengthM / v),
+    modalImpedancesOhm: Array.from(plan.modal[i].Zm),
+    zcOhm: Array.from(plan.modal[i].Zc),
+    origin: l.origin,
+  }));
+}
+
+/** Plain summary of the network (names only). */
+export function summariseNetwork(sc: ResolvedScenario): NetworkSummary {
+  const nodeName = (j: number, k: number): string => (k < 0 ? 'ref' : sc.junctions[j].nodes[k]);
+  return {
+    lines: sc.lines.map((l) => ({ id: l.id, from: sc.junctions[l.from].id, to: sc.junctions[l.to].id, lengthM: l.lengthM, conductors: l.conductors })),
+    junctions: sc.junctions.map((j) => ({
+      id: j.id,
+      nodes: j.nodes,
+      parts: j.parts.map((p) => ({ id: p.id, role: p.role, type: p.type, between: [nodeName(j.index, p.plus), nodeName(j.index, p.minus)] as [string, string] })),
+    })),
+    probes: sc.probes.map((p) => ({ id: p.id, type: p.type })),
+  };
+}

@@ -1,0 +1,106 @@
+/**
+ * JSON Schema (draft 2020-12) of the scenario format, for editors and for `skein schema`. The
+ * engine's own validation (resolve.ts) is stricter: it also checks units, matrix properties,
+ * wiring and each plugin's parameters, and it locates every error in the file.
+ */
+const quantity = (unit: string, example: string) => ({
+  description: `a ${unit} quantity: a number in SI units or text with an SI prefix, e.g. "${example}"`,
+  oneOf: [{ type: 'number' }, { type: 'string', pattern: '^\\s*[+-]?(\\d+\\.?\\d*|\\.\\d+)([eE][+-]?\\d+)?\\s*\\S*\\s*$' }],
+});
+const matrix = (unit: string, example: string) => ({
+  description: `n x n matrix per metre (list of rows), or one value for one conductor; ${unit}`,
+  oneOf: [quantity(unit, example), { type: 'array', items: { type: 'array', items: quantity(unit, example) } }],
+});
+const id = { type: 'string', pattern: '^[A-Za-z_][A-Za-z0-9_-]*$' };
+
+/** The scenario JSON Schema as a plain object. */
+export const scenarioSchema = {
+  $schema: 'https://json-schema.org/draft/2020-12/schema',
+  $id: 'skein-scenario-1',
+  title: 'skein scenario, format 1',
+  type: 'object',
+  required: ['skein', 'time', 'lines', 'junctions'],
+  additionalProperties: false,
+  properties: {
+    skein: { const: 1, description: 'scenario format version' },
+    title: { type: 'string' },
+    time: {
+      type: 'object',
+      required: ['end'],
+      additionalProperties: false,
+      properties: {
+        end: quantity('time', '2us'),
+        step: { description: '"auto" (default) or a time step', oneOf: [{ const: 'auto' }, quantity('time', '0.1ns')] },
+        stepsPerFeature: { type: 'integer', minimum: 2, default: 10, description: 'automatic step: steps across the fastest source feature' },
+        record: { type: 'integer', minimum: 1, default: 1, description: 'record every k-th step' },
+        delays: { enum: ['interpolate', 'round'], default: 'interpolate', description: 'how delays that are not whole steps are handled' },
+      },
+    },
+    lines: {
+      type: 'object',
+      minProperties: 1,
+      propertyNames: id,
+      additionalProperties: {
+        type: 'object',
+        required: ['from', 'to', 'length'],
+        additionalProperties: false,
+        properties: {
+          from: { ...id, description: 'junction at z = 0' },
+          to: { ...id, description: 'junction at z = length' },
+          length: quantity('length', '12m'),
+          conductors: { type: 'array', items: id, minItems: 1, uniqueItems: true },
+          inductance: matrix('H/m', '0.25uH/m'),
+          capacitance: matrix('F/m', '100pF/m'),
+          resistance: matrix('ohm/m', '10ohm/km'),
+          conductance: matrix('S/m', '1uS/m'),
+          impedance: quantity('resistance', '50ohm'),
+          velocity: { description: 'a speed ("2e8m/s") or a fraction of light speed ("0.66c")', oneOf: [{ type: 'number' }, { type: 'string' }] },
+          section: { type: 'object', description: 'cross-section geometry, see the lines package' },
+        },
+      },
+    },
+    junctions: {
+      type: 'object',
+      minProperties: 1,
+      propertyNames: id,
+      additionalProperties: {
+        type: 'object',
+        required: ['nodes'],
+        additionalProperties: false,
+        properties: {
+          nodes: {
+            type: 'object',
+            minProperties: 1,
+            propertyNames: { ...id, not: { const: 'ref' } },
+            additionalProperties: {
+              description: 'line-end conductors on this node: "line.conductor", "line.from.conductor", or "line" for one conductor',
+              oneOf: [{ type: 'array', items: { type: 'string' } }, { type: 'string' }, { type: 'null' }],
+            },
+          },
+          parts: {
+            type: 'object',
+            propertyNames: id,
+            additionalProperties: {
+              type: 'object',
+              required: ['between'],
+              properties: {
+                load: { type: 'string', description: 'registered load type' },
+                source: { type: 'string', description: 'registered source (waveform) type' },
+                between: { type: 'array', items: { type: 'string' }, minItems: 2, maxItems: 2, description: '[plus, minus]: nodes of this junction or "ref"' },
+                drive: { enum: ['voltage', 'current'], default: 'voltage' },
+                resistance: quantity('resistance', '50ohm'),
+              },
+              oneOf: [{ required: ['load'] }, { required: ['source'] }],
+              additionalProperties: true,
+            },
+          },
+        },
+      },
+    },
+    probes: {
+      type: 'object',
+      propertyNames: id,
+      additionalProperties: { type: 'object', required: ['probe'], properties: { probe: { type: 'string' } }, additionalProperties: true },
+    },
+  },
+} as const;
