@@ -167,8 +167,17 @@ export function solveInsulatedBundle(input: BundleInput): BundleResult {
   const hasInsulation = input.wires.some((w) => w.insulation !== undefined && w.insulation.thickness > 0);
   const C0 = hasInsulation ? capacitance(input, N, false).C : C.C;
   const n = C.n;
-  const L = invertSymmetric(C0, n).map((v) => v * MU0 * EPS0);
-  return { n, C: C.C, C0, L, unknowns: C.unknowns };
+  // Point matching leaves a tiny asymmetry (of the order of the discretisation error): symmetrise.
+  const Cs = symmetrise(C.C, n);
+  const C0s = hasInsulation ? symmetrise(C0, n) : Cs;
+  const L = symmetrise(invertSymmetric(C0s, n).map((v) => v * MU0 * EPS0), n);
+  return { n, C: Cs, C0: C0s, L, unknowns: C.unknowns };
+}
+
+function symmetrise(a: Float64Array, n: number): Float64Array {
+  const out = new Float64Array(n * n);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[i * n + j] = 0.5 * (a[i * n + j] + a[j * n + i]);
+  return out;
 }
 
 function capacitance(input: BundleInput, N: number, withInsulation: boolean): { n: number; C: Float64Array; unknowns: number } {
