@@ -4,7 +4,7 @@
  * With C = S S^T (Cholesky) the symmetric matrix S^T L S = U diag(lambda) U^T is diagonalised.
  * Then V = T_V V_m, I = T_I I_m with T_V = S^-T U and T_I = S U = T_V^-T diagonalise the line:
  * modal inductance diag(lambda), modal capacitance 1, so mode m travels at v_m = 1/sqrt(lambda_m)
- * with modal impedance Z_m = sqrt(lambda_m). The characteristic impedance matrix is
+ * with modal impedance Z_m = sqrt(lambda_m) (in scaled units; each mode is then rescaled, below). The characteristic impedance matrix is
  * Zc = T_V diag(Z_m) T_I^-1. This is the symmetric form of the decoupling given in C. R. Paul,
  * Analysis of Multiconductor Transmission Lines, 2nd ed., Wiley 2008, ch. 7 (from memory). It holds
  * for inhomogeneous media, where the modes travel at different speeds.
@@ -69,11 +69,23 @@ export function decomposeLine(L: Float64Array, C: Float64Array): ModalLine {
     if (!(lam[m] > 0)) throw new Error(`bug: modal eigenvalue ${lam[m]} is not positive for positive definite L and C`);
   }
   const Sinv = inverse(S);
-  const Tv = Sinv.transpose().mmul(U);
-  const TvInv = U.transpose().mmul(S.transpose());
-  const Ti = S.mmul(U);
-  const TiInv = U.transpose().mmul(Sinv);
-  const Zm = lam.map((x) => Math.sqrt(x));
+  // Scale each mode so that its largest conductor voltage is +1: V_m' = d V_m, I_m' = I_m / d
+  // keeps T_V^T T_I = 1 and makes the modal impedance d^2 sqrt(lambda) an impedance in ohms
+  // (for one conductor, T_V = T_I = 1 and Z_m = sqrt(L / C)).
+  const Tv0 = Sinv.transpose().mmul(U);
+  const d = new Float64Array(n);
+  for (let m = 0; m < n; m++) {
+    let best = 0;
+    for (let i = 0; i < n; i++) if (Math.abs(Tv0.get(i, m)) > Math.abs(best)) best = Tv0.get(i, m);
+    d[m] = best;
+  }
+  const Dinv = Matrix.diag(Array.from(d, (x) => 1 / x));
+  const Dm = Matrix.diag(Array.from(d));
+  const Tv = Tv0.mmul(Dinv);
+  const TvInv = Dm.mmul(U.transpose().mmul(S.transpose()));
+  const Ti = S.mmul(U).mmul(Dm);
+  const TiInv = Dinv.mmul(U.transpose().mmul(Sinv));
+  const Zm = lam.map((x, m) => d[m] * d[m] * Math.sqrt(x));
   const velocities = lam.map((x) => 1 / Math.sqrt(x));
   const Dz = Matrix.diag(Array.from(Zm));
   const Dy = Matrix.diag(Array.from(Zm, (z) => 1 / z));
