@@ -83,7 +83,7 @@ export function djordjevicSarkarDielectric(relPermittivity: number, lossTangent:
   return {
     at: (fHz) => {
       const s = shape(2 * Math.PI * fHz);
-      return { re: epsInf + d * s.re, im: -d * s.im };
+      return { re: epsInf + d * s.re, im: -d * s.im + 0 };
     },
     highFrequency: epsInf,
     dispersive: d !== 0,
