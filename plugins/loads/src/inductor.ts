@@ -1,0 +1,37 @@
+/**
+ * `inductor`: trapezoidal companion model. From v = L di/dt integrated by the trapezoidal rule,
+ *   i_n = i_{n-1} + (dt/2L) (v_n + v_{n-1}),
+ * so g = dt/(2L) and h_n = i_{n-1} + g v_{n-1}. The state before the first step,
+ * (v, i) = (0, initialCurrent), is taken to hold one step before t = 0.
+ */
+import { defineLoad } from '@skein/core';
+
+/**
+ * The inductor load plugin. Params: inductance [H, > 0], initialCurrent [A, default 0, plus to minus].
+ * storedEnergyJ() = L i^2 / 2 at the last accepted current.
+ * @example create({ inductance: 1e-6, initialCurrent: 0 }, { dtS: 1e-9 }).conductanceS // 5e-4 (S)
+ */
+export const inductorLoad = defineLoad({
+  type: 'inductor',
+  summary: 'A linear inductor (trapezoidal companion model)',
+  params: {
+    inductance: { unit: 'H', min: 0, exclusiveMin: true, summary: 'inductance' },
+    initialCurrent: { unit: 'A', default: 0, summary: 'current from plus to minus before the run starts' },
+  },
+  create(p, ctx) {
+    const l = p.inductance;
+    const g = ctx.dtS / (2 * l);
+    let v = 0;
+    let i = p.initialCurrent;
+    return {
+      kind: 'linear',
+      conductanceS: g,
+      history: (): number => i + g * v,
+      accept(vV: number): void {
+        i = i + g * (v + vV);
+        v = vV;
+      },
+      storedEnergyJ: (): number => 0.5 * l * i * i,
+    };
+  },
+});

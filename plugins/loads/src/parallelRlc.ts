@@ -1,0 +1,55 @@
+/**
+ * `parallel-rlc`: any subset of R, L, C in parallel between the same two nodes, trapezoidal rule.
+ * The branch current is i = v/R + i_L + i_C with the inductor and capacitor companions
+ *   i_L,n = g_L v_n + i_L,{n-1} + g_L v_{n-1},  g_L = dt/(2L)
+ *   i_C,n = g_C v_n - (g_C v_{n-1} + i_C,{n-1}),  g_C = 2C/dt
+ * so g = 1/R + g_L + g_C and h_n = i_L,{n-1} + (g_L - g_C) v_{n-1} - i_C,{n-1}.
+ * The state before the first step (v = initialVoltage, i_L = initialCurrent, i_C = 0) is taken to
+ * hold one step before t = 0.
+ */
+import { badInput, defineLoad } from '@skein/core';
+
+/**
+ * The parallel RLC load plugin. Params: resistance [ohm, optional], inductance [H, optional],
+ * capacitance [F, optional] (at least one), initialVoltage [V, default 0], initialCurrent [A, default 0, in L].
+ * storedEnergyJ() = L i_L^2 / 2 + C v^2 / 2.
+ * @throws InputError (E_PARAM) when none of R, L, C is given.
+ * @example create({ resistance: 100, capacitance: 1e-9, initialVoltage: 0, initialCurrent: 0 }, { dtS: 1e-9 }).conductanceS // 2.01
+ */
+export const parallelRlcLoad = defineLoad({
+  type: 'parallel-rlc',
+  summary: 'Resistance, inductance and capacitance in parallel (any subset, at least one)',
+  params: {
+    resistance: { unit: 'ohm', optional: true, min: 0, exclusiveMin: true, summary: 'parallel resistance; leave out for none' },
+    inductance: { unit: 'H', optional: true, min: 0, exclusiveMin: true, summary: 'parallel inductance; leave out for none' },
+    capacitance: { unit: 'F', optional: true, min: 0, exclusiveMin: true, summary: 'parallel capacitance; leave out for none' },
+    initialVoltage: { unit: 'V', default: 0, summary: 'voltage from plus to minus before the run starts (on C)' },
+    initialCurrent: { unit: 'A', default: 0, summary: 'inductor current from plus to minus before the run starts' },
+  },
+  create(p, ctx) {
+    if (p.resistance === undefined && p.inductance === undefined && p.capacitance === undefined) {
+      throw badInput(['resistance'], 'needs at least one of resistance, inductance, capacitance', undefined, 'E_PARAM');
+    }
+    const dt = ctx.dtS;
+    const l = p.inductance;
+    const c = p.capacitance ?? 0;
+    const gr = p.resistance === undefined ? 0 : 1 / p.resistance;
+    const gl = l === undefined ? 0 : dt / (2 * l);
+    const gc = (2 * c) / dt;
+    const g = gr + gl + gc;
+    let v = p.initialVoltage;
+    let il = l === undefined ? 0 : p.initialCurrent;
+    let ic = 0;
+    return {
+      kind: 'linear',
+      conductanceS: g,
+      history: (): number => il + (gl - gc) * v - ic,
+      accept(vV: number): void {
+        il = il + gl * (v + vV);
+        ic = gc * (vV - v) - ic;
+        v = vV;
+      },
+      storedEnergyJ: (): number => (l === undefined ? 0 : 0.5 * l * il * il) + 0.5 * c * v * v,
+    };
+  },
+});
