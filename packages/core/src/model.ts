@@ -3,7 +3,7 @@
  * every name turned into an index and every plugin parameter checked. The compile step turns it
  * into flat arrays; nothing after this point looks up a name.
  */
-import type { DocPath } from './errors.ts';
+import type { DocPath, SourceLocation } from './errors.ts';
 
 /** Time settings of a run. */
 export interface ResolvedTime {
@@ -94,4 +94,6 @@ export interface ResolvedScenario {
   probes: ResolvedProbe[];
   /** SHA-256 of the canonical resolved content (hex). */
   digest: string;
+  /** File, line and column of a path in the scenario document (for errors found after resolution). */
+  locate: (path: DocPath) => SourceLocation;
 }

@@ -210,9 +210,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   if (scenario.time.stepS !== undefined) {
     dtS = scenario.time.stepS;
     if (dtS > minDelay * (1 + 1e-12)) {
-      throw badInput(['time', 'step'], `must be at most the shortest line delay, ${formatQuantity(minDelay, 's')} (${minWhere})`, formatQuantity(dtS, 's'), 'E_STEP_TOO_LONG', {
-        file: scenario.file,
-      });
+      throw badInput(['time', 'step'], `must be at most the shortest line delay, ${formatQuantity(minDelay, 's')} (${minWhere})`, formatQuantity(dtS, 's'), 'E_STEP_TOO_LONG', scenario.locate(['time', 'step']));
     }
   } else {
     let feature = Infinity;

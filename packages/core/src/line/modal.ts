@@ -51,6 +51,16 @@ function toFlat(m: Matrix): Float64Array {
  */
 export function decomposeLine(L: Float64Array, C: Float64Array): ModalLine {
   const n = Math.round(Math.sqrt(L.length));
+  if (n === 1) {
+    // One conductor: the closed form, with transforms exactly 1 so that the one-conductor fast
+    // path and the general kernel do the same arithmetic.
+    const z = Math.sqrt(L[0] / C[0]);
+    const one = Float64Array.of(1);
+    return {
+      n, velocities: Float64Array.of(1 / Math.sqrt(L[0] * C[0])), Zm: Float64Array.of(z),
+      Tv: one, TvInv: one.slice(), Ti: one.slice(), TiInv: one.slice(), Zc: Float64Array.of(z), Yc: Float64Array.of(1 / z),
+    };
+  }
   const S = new CholeskyDecomposition(toMatrix(C, n)).lowerTriangularMatrix;
   const M = S.transpose().mmul(toMatrix(L, n)).mmul(S);
   // Symmetrise against rounding so the symmetric eigensolver applies.

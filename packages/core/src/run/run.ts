@@ -126,7 +126,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     for (const pr of sc.probes) {
       const plugin = options.registry.probes.get(pr.type)!.plugin;
       const fail = (param: string | undefined, rule: string, value: unknown): SkeinError =>
-        badInput(param ? [...pr.path, param] : pr.path, rule, value, 'E_PROBE_PLACE', { file: sc.file });
+        badInput(param ? [...pr.path, param] : pr.path, rule, value, 'E_PROBE_PLACE', sc.locate(param ? [...pr.path, param] : pr.path));
       const ctx: ProbeSetupContext = {
         dtS: plan.dtS,
         endS: sc.time.endS,

@@ -438,8 +438,8 @@ export function resolveScenarioDocument(doc: LocatedDocument, options: ResolveOp
     }
   }
   const title = (root.title as string | undefined) ?? (options.file ?? 'untitled scenario');
-  const resolved: Omit<ResolvedScenario, 'digest'> = { title, file: options.file, time, lines, junctions, probes };
-  return { ...resolved, digest: digestOf(resolved) };
+  const resolved: Omit<ResolvedScenario, 'digest' | 'locate'> = { title, file: options.file, time, lines, junctions, probes };
+  return { ...resolved, digest: digestOf(resolved), locate: (path) => doc.locate(path) };
 }
 
 /** SHA-256 (hex) of a canonical JSON form: typed arrays as lists, document paths and file left out. */

@@ -1,0 +1,214 @@
+/**
+ * The `skein` command. Exit codes: 0 success, 2 bad input (nothing written), 1 any other failure.
+ */
+import { existsSync, readFileSync } from 'node:fs';
+import { basename, dirname, join, resolve } from 'node:path';
+import { fileURLToPath, pathToFileURL } from 'node:url';
+import { parseArgs } from 'node:util';
+import {
+  compileScenario, InputError, loadPluginModules, PluginRegistry, readResults, resolveScenarioText, runPlan, scenarioSchema,
+  SkeinError, writeFileAtomic, writeResults, type ResolvedScenario,
+} from '@skein/core';
+import { createProgress } from './progress.ts';
+import { STANDARD_PLUGINS } from './standardPlugins.ts';
+import { formatCheck, formatInspect, formatRunSummary } from './summary.ts';
+import { toCsv } from './export.ts';
+
+const HERE = dirname(fileURLToPath(import.meta.url));
+/** The built-in demo scenario. */
+export const DEMO_SCENARIO = join(HERE, 'demo', 'harness.yaml');
+
+const USAGE = `skein: pulses in wire networks
+
+usage: skein <command> [options]
+
+commands:
+  run FILE [--out PATH]        simulate a scenario (YAML or JSON), write a results file
+  check FILE [--json]          validate a scenario and print derived data (modes, Zc, delays, step)
+  demo [--out DIR]             run the built-in demo scenario
+  inspect RESULTS              summarise a results file
+  export RESULTS --csv [--out PATH]
+                               write the traces as CSV (stdout without --out)
+  schema                       print the scenario JSON Schema
+
+options for every command that reads a scenario:
+  --plugin SPEC                also load this plugin module (repeatable)
+  --config PATH                a JSON configuration file with { "plugins": [...] }
+                               (default: ./skein.config.json when it exists)
+  --quiet                      no progress output
+`;
+
+interface Io {
+  out: (s: string) => void;
+  err: (s: string) => void;
+}
+
+const defaultIo: Io = {
+  out: (s) => process.stdout.write(s.endsWith('\n') ? s : `${s}\n`),
+  err: (s) => process.stderr.write(s.endsWith('\n') ? s : `${s}\n`),
+};
+
+/**
+ * Builds the plugin registry: the standard set, then the configuration's plugins, then --plugin flags.
+ * @throws SkeinError E_PLUGIN_LOAD, E_PLUGIN_DUPLICATE, E_CONFIG.
+ */
+export async function buildRegistry(flags: { plugin?: string[]; config?: string }): Promise<PluginRegistry> {
+  const registry = new PluginRegistry();
+  await loadPluginModules(registry, STANDARD_PLUGINS, import.meta.url);
+  const configPath = flags.config ?? (existsSync('skein.config.json') ? 'skein.config.json' : undefined);
+  if (configPath) {
+    let cfg: unknown;
+    try {
+      cfg = JSON.parse(readFileSync(configPath, 'utf8'));
+    } catch (e) {
+      throw new SkeinError('E_CONFIG', `${configPath}: cannot read the configuration: ${(e as Error).message}`, { file: configPath });
+    }
+    const plugins = (cfg as { plugins?: unknown }).plugins;
+    if (plugins !== undefined && (!Array.isArray(plugins) || plugins.some((p) => typeof p !== 'string'))) {
+      throw new SkeinError('E_CONFIG', `${configPath}: "plugins" must be a list of module specifiers`, { file: configPath });
+    }
+    await loadPluginModules(registry, (plugins as string[] | undefined) ?? [], pathToFileURL(resolve(configPath)).href);
+  }
+  await loadPluginModules(registry, flags.plugin ?? [], pathToFileURL(`${process.cwd()}/`).href);
+  return registry;
+}
+
+function readScenario(file: string, registry: PluginRegistry): ResolvedScenario {
+  let text: string;
+  try {
+    text = readFileSync(file, 'utf8');
+  } catch (e) {
+    throw new InputError('E_FILE', [], `must be a readable scenario file (${(e as NodeJS.ErrnoException).code ?? 'error'})`, file, { file });
+  }
+  return resolveScenarioText(text, { registry, file });
+}
+
+/** Default results path: next to the scenario, same base name. */
+export function defaultResultsPath(scenarioFile: string): string {
+  const base = basename(scenarioFile).replace(/\.(ya?ml|json)$/i, '');
+  return join(dirname(scenarioFile), `${base}.results.msgpack`);
+}
+
+async function runFile(file: string, outPath: string, flags: Flags, io: Io): Promise<void> {
+  const registry = await buildRegistry(flags);
+  const sc = readScenario(file, registry);
+  const plan = await compileScenario(sc, { registry });
+  const progress = createProgress(`running ${basename(file)}`, process.stderr, flags.quiet);
+  const result = await runPlan(plan, { registry, onProgress: (f) => progress.update(f) });
+  progress.done();
+  writeResults(outPath, result, file);
+  io.out(formatRunSummary(result, outPath));
+}
+
+interface Flags {
+  out?: string;
+  plugin?: string[];
+  config?: string;
+  quiet?: boolean;
+  json?: boolean;
+  csv?: boolean;
+  help?: boolean;
+}
+
+/**
+ * Runs the command line.
+ * @param argv arguments after the program name.
+ * @returns the exit code.
+ */
+export async function main(argv: string[], io: Io = defaultIo): Promise<number> {
+  let parsed: ReturnType<typeof parseArgs>;
+  try {
+    parsed = parseArgs({
+      args: argv,
+      allowPositionals: true,
+      options: {
+        out: { type: 'string', short: 'o' },
+        plugin: { type: 'string', multiple: true },
+        config: { type: 'string' },
+        quiet: { type: 'boolean', short: 'q' },
+        json: { type: 'boolean' },
+        csv: { type: 'boolean' },
+        help: { type: 'boolean', short: 'h' },
+      },
+    });
+  } catch (e) {
+    io.err(`skein: ${(e as Error).message}\n\n${USAGE}`);
+    return 2;
+  }
+  const flags = parsed.values as Flags;
+  const [command, ...rest] = parsed.positionals;
+  if (flags.help || command === undefined || command === 'help') {
+    io.out(USAGE);
+    return command === undefined && !flags.help ? 2 : 0;
+  }
+  try {
+    switch (command) {
+      case 'run': {
+        const file = needFile(rest, 'run', 'a scenario file');
+        await runFile(file, flags.out ?? defaultResultsPath(file), flags, io);
+        return 0;
+      }
+      case 'demo': {
+        const dir = flags.out ?? 'skein-demo';
+        const { mkdirSync } = await import('node:fs');
+        mkdirSync(dir, { recursive: true });
+        await runFile(DEMO_SCENARIO, join(dir, 'demo.results.msgpack'), flags, io);
+        return 0;
+      }
+      case 'check': {
+        const file = needFile(rest, 'check', 'a scenario file');
+        const registry = await buildRegistry(flags);
+        const sc = readScenario(file, registry);
+        const plan = await compileScenario(sc, { registry });
+        if (flags.json) {
+          io.out(JSON.stringify({
+            title: sc.title, digest: sc.digest, dtS: plan.dtS, steps: plan.nSteps, delays: plan.delays, warnings: plan.warnings,
+            lines: sc.lines.map((l, i) => ({ id: l.id, conductors: l.conductors, velocitiesMps: Array.from(plan.modal[i].velocities), zcOhm: Array.from(plan.modal[i].Zc), modalImpedancesOhm: Array.from(plan.modal[i].Zm) })),
+          }, null, 2));
+        } else {
+          io.out(formatCheck(plan));
+        }
+        return 0;
+      }
+      case 'inspect': {
+        const file = needFile(rest, 'inspect', 'a results file');
+        io.out(formatInspect(readResults(file), file));
+        return 0;
+      }
+      case 'export': {
+        const file = needFile(rest, 'export', 'a results file');
+        if (!flags.csv) throw new InputError('E_USAGE', [], 'export needs a format flag: --csv', argv.join(' '));
+        const csv = toCsv(readResults(file));
+        if (flags.out) writeFileAtomic(flags.out, csv);
+        else process.stdout.write(csv);
+        return 0;
+      }
+      case 'schema':
+        io.out(JSON.stringify(scenarioSchema, null, 2));
+        return 0;
+      default:
+        io.err(`skein: unknown command "${command}"\n\n${USAGE}`);
+        return 2;
+    }
+  } catch (e) {
+    if (e instanceof InputError) {
+      io.err(`skein: ${e.message}`);
+      return 2;
+    }
+    if (e instanceof SkeinError) {
+      io.err(`skein: ${e.message} [${e.code}]`);
+      return 1;
+    }
+    io.err(`skein: bug: ${(e as Error).stack ?? String(e)}`);
+    return 1;
+  }
+}
+
+function needFile(rest: string[], command: string, what: string): string {
+  if (rest.length !== 1) throw new InputError('E_USAGE', [], `skein ${command} takes ${what}`, rest.join(' ') || undefined);
+  return rest[0];
+}
+
+if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  process.exitCode = await main(process.argv.slice(2));
+}

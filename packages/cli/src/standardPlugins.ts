@@ -1,0 +1,9 @@
+/**
+ * The standard plugin set, in the fixed order every thread loads it. Core names none of these;
+ * they are ordinary plugin packages written against core's public API.
+ */
+export const STANDARD_PLUGINS: readonly string[] = [
+  '@skein/plugin-waveforms',
+  '@skein/plugin-loads',
+  '@skein/plugin-probes',
+];
