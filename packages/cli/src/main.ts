@@ -210,5 +210,7 @@ function needFile(rest: string[], command: string, what: string): string {
 }
 
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
+  // `pnpm skein ...` runs from the workspace root; paths on the command line are the user's.
+  if (process.env.INIT_CWD) process.chdir(process.env.INIT_CWD);
   process.exitCode = await main(process.argv.slice(2));
 }
