@@ -27,6 +27,7 @@ export interface ResolvedMaterial {
 
 type Obj = Record<string, unknown>;
 
+/** The accepted section kinds. */
 export const SECTION_KINDS = ['wires', 'coax', 'microstrip', 'stripline', 'coupled-stripline'] as const;
 
 function isObj(v: unknown): v is Obj {
@@ -88,7 +89,15 @@ function enumStr<T extends string>(o: Obj, key: string, path: SectionPath, accep
 
 const LENGTH = { unit: 'm', what: 'length' };
 
-/** Validates a material (default copper). */
+/**
+ * Validates a material (default copper).
+ *
+ * @param v the material input
+ * @param path its path in the section
+ * @returns conductivity [S/m] (Infinity for 'perfect') and relative permeability
+ * @throws SectionError for an unknown name or bad numbers
+ * @example resolveMaterial('aluminium', []).conductivity // 3.77e7
+ */
 export function resolveMaterial(v: unknown, path: SectionPath): ResolvedMaterial {
   if (v === undefined || v === 'copper') return { conductivity: COPPER_CONDUCTIVITY, relPermeability: 1 };
   if (v === 'aluminium') return { conductivity: ALUMINIUM_CONDUCTIVITY, relPermeability: 1 };
@@ -103,7 +112,16 @@ export function resolveMaterial(v: unknown, path: SectionPath): ResolvedMaterial
 
 const DIELECTRIC_KEYS = ['relPermittivity', 'lossTangent', 'model', 'specAtHz', 'lowHz', 'highHz'] as const;
 
-/** Validates a dielectric description. */
+/**
+ * Validates a dielectric description and fills its defaults.
+ *
+ * @param v the dielectric input
+ * @param path its path in the section
+ * @param extraKeys further keys allowed in the same object (e.g. 'thickness')
+ * @returns the dielectric with defaults
+ * @throws SectionError for bad or out-of-range values
+ * @example resolveDielectric({ relPermittivity: 2.25 }, []).lossTangent // 0
+ */
 export function resolveDielectric(v: unknown, path: SectionPath, extraKeys: readonly string[] = []): DielectricInput {
   const o = asObj(v, path);
   allowKeys(o, path, [...DIELECTRIC_KEYS, ...extraKeys]);
@@ -242,8 +260,30 @@ function resolveWires(o: Obj): ResolvedWires {
     const i = wires.findIndex((w) => w.insulation !== undefined && w.insulation.thickness > 0);
     throw sectionError('SECTION_UNSUPPORTED', ['solver'], `must be 'numeric' or 'auto' when a wire is insulated (wires[${i}] is): the thin-wire formulas have no insulation`, solver);
   }
-  const solverUsed = solver === 'auto' ? (anyInsulated ? 'numeric' : 'thin-wire') : solver;
+  const solverUsed = solver === 'auto' ? (anyInsulated || thinWireProximity(wires, ground !== 'none') > AUTO_PROXIMITY ? 'numeric' : 'thin-wire') : solver;
   return { kind: 'wires', ground, wires, solver, harmonics, referenceIndex, solverUsed };
+}
+
+/**
+ * With solver 'auto', bare wires closer than this ratio of radius to distance (to another wire or
+ * to its image) use the numerical solver: the thin-wire formulas are off by about (r/d)^2, so
+ * 0.03 keeps their error below 1e-3.
+ */
+export const AUTO_PROXIMITY = 0.03;
+
+/** Largest radius / distance ratio over wire pairs and wire-image pairs. */
+export function thinWireProximity(wires: ResolvedWire[], withGround: boolean): number {
+  let p = 0;
+  for (let i = 0; i < wires.length; i++) {
+    const a = wires[i];
+    if (withGround) p = Math.max(p, a.fieldRadius / (2 * a.y));
+    for (let j = 0; j < wires.length; j++) {
+      if (i === j) continue;
+      const b = wires[j];
+      p = Math.max(p, a.fieldRadius / Math.hypot(a.x - b.x, a.y - b.y));
+    }
+  }
+  return p;
 }
 
 /** Validated coax. */
@@ -308,6 +348,10 @@ function resolveMicrostrip(o: Obj): ResolvedMicrostrip {
   const thickness = thicknessForLoss(o, resolvedMaterial);
   if (o.substrate === undefined) throw sectionError('SECTION_REQUIRED', ['substrate'], 'is required ({ relPermittivity, lossTangent? })', undefined);
   const substrate = resolveDielectric(o.substrate, ['substrate']);
+  // Hammerstad-Jensen's stated accuracy range: 0.01 <= W/h <= 100, er <= 128.
+  const u = width / substrateHeight;
+  if (u < 0.01 || u > 100) throw sectionError('SECTION_RANGE', ['width'], `must give width/substrateHeight within 0.01..100 (Hammerstad-Jensen range), ratio is ${u}`, width, 'm');
+  if (substrate.relPermittivity > 128) throw sectionError('SECTION_RANGE', ['substrate', 'relPermittivity'], 'must be at most 128 (Hammerstad-Jensen range)', substrate.relPermittivity);
   return { kind: 'microstrip', width, substrateHeight, thickness, substrate, resolvedMaterial };
 }
 
