@@ -39,3 +39,5 @@ export type { BundleInput, BundleWire, BundleResult } from './bundleSolver.ts';
 export { constantDielectric, djordjevicSarkarDielectric, dielectricModel } from './dielectric.ts';
 export type { DielectricInput, DielectricModel } from './dielectric.ts';
 export { integrateComplex } from './quadrature.ts';
+export { sampleSection } from './sample.ts';
+export type { SampledRlgc } from './sample.ts';
