@@ -11,9 +11,9 @@ function scenario(z1: number, z2: number, z3: number): string {
 skein: 1
 time: { end: 60ns, step: 0.5ns }
 lines:
-  a: { from: S, to: J, length: 3m, impedance: ${z1}ohm, velocity: 3e8m/s }
-  b: { from: J, to: B, length: 3m, impedance: ${z2}ohm, velocity: 3e8m/s }
-  c: { from: J, to: C, length: 3m, impedance: ${z3}ohm, velocity: 3e8m/s }
+  a: { from: S, to: J, length: 2m, impedance: ${z1}ohm, velocity: 2e8m/s }
+  b: { from: J, to: B, length: 2m, impedance: ${z2}ohm, velocity: 2e8m/s }
+  c: { from: J, to: C, length: 2m, impedance: ${z3}ohm, velocity: 2e8m/s }
 junctions:
   S:
     nodes: { s: [a] }

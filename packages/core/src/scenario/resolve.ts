@@ -157,7 +157,7 @@ function resolveTime(doc: LocatedDocument, v: unknown): ResolvedTime {
   if (delays !== 'interpolate' && delays !== 'round') throw doc.fail([...path, 'delays'], 'must be one of interpolate, round', delays, 'E_ENUM');
   const stepsPerFeature = int('stepsPerFeature', 10, 2);
   const recordEvery = int('record', 1, 1);
-  if (Math.floor(endS / (stepS ?? endS / 1e9)) > 5e8) throw doc.fail([...path, 'step'], 'gives more than 5e8 steps; choose a longer step or a shorter end', t.step, 'E_RANGE');
+  if (stepS !== undefined && endS / stepS > 5e8) throw doc.fail([...path, 'step'], 'gives more than 5e8 steps; choose a longer step or a shorter end', t.step, 'E_RANGE');
   return { endS, stepS, stepsPerFeature, recordEvery, delays };
 }
 
