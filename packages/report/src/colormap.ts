@@ -10,9 +10,12 @@
  * that nothing is fetched. Its middle stop is a near-neutral grey, so a domain symmetric about
  * 0 V shows zero as grey, negative voltage as blue and positive voltage as yellow.
  *
- * Traces: a palette of our own, chosen for skein: eight hues spread around the colour wheel with
- * alternating lightness, so neighbouring series differ in lightness as well as hue (which is what
- * survives for colour-blind viewers), all dark enough to read on white.
+ * Traces: a palette of our own, chosen for skein: eight hues spread around the colour wheel
+ * (blue, orange, teal, crimson, olive, violet, brown, slate), ordered so that the first pairs
+ * differ along the blue-orange axis, which viewers with red-green colour blindness still separate;
+ * every colour has at least 3:1 contrast against white (WCAG 2.1, success criterion 1.4.11, the
+ * level for graphical objects). Past eight series the palette repeats with dash patterns, so no
+ * series is told apart by colour alone.
  */
 
 /** Cividis, 256 sRGB stops in [0, 1], flattened r, g, b (Nunez et al. 2018, see file header). */
@@ -304,11 +307,11 @@ export function cividisRgb(t: number): [number, number, number] {
 }
 
 /**
- * skein's trace palette (our own choice, see file header): deep blue, orange, teal, crimson,
+ * skein's trace palette (our own choice, see file header): deep blue, burnt orange, teal, crimson,
  * olive, violet, brown, slate. Series beyond eight repeat it with a dash pattern.
  */
 export const TRACE_PALETTE: ReadonlyArray<string> = [
-  '#1f4e9c', '#e07b00', '#138a7e', '#c2185b', '#6b7d12', '#7b4bc4', '#8c5a2b', '#4a5a6a',
+  '#1f4e9c', '#c46a00', '#138a7e', '#c2185b', '#6b7d12', '#7b4bc4', '#8c5a2b', '#4a5a6a',
 ];
 
 /** Dash patterns used once the palette repeats (index = floor(series / palette length)). */
