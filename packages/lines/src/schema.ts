@@ -95,7 +95,7 @@ export const sectionSchema: JsonSchema = {
         reference: { type: 'string', description: "Name of the reference wire (ground 'none' only)" },
         wires: { type: 'array', minItems: 1, items: { $ref: '#/$defs/wire' } },
         solver: { enum: ['auto', 'thin-wire', 'numeric'], default: 'auto' },
-        harmonics: { type: 'integer', minimum: 1, maximum: 64, default: 12 },
+        harmonics: { type: 'integer', minimum: 1, maximum: 64, description: 'Harmonics per circle for the numerical solver (omitted: automatic)' },
       },
     },
     coax: {

@@ -113,36 +113,70 @@ function wiresModel(s: ResolvedWires): Model {
   const ground = s.ground === 'none' ? 'none' : 'perfect';
   let Lhf: Float64Array;
   let Chf: Float64Array;
-  let sens: Float64Array[] = [];
-  let dielectrics: (DielectricModel | undefined)[] = [];
+  const sens: Float64Array[] = [];
+  const dielectrics: DielectricModel[] = [];
+  let numericHarmonics = 0;
+  let numericChange = NaN;
   if (s.solverUsed === 'thin-wire') {
     const r = imageMethodWires(s.wires.map((w) => ({ x: w.x, y: w.y, radius: w.fieldRadius })), ground, ref);
     Lhf = r.L;
     Chf = r.C;
   } else {
-    dielectrics = s.wires.map((w) => (w.insulation && w.insulation.thickness > 0 ? dielectricModel(w.insulation) : undefined));
+    const models = s.wires.map((w) => (w.insulation && w.insulation.thickness > 0 ? dielectricModel(w.insulation) : undefined));
     const bundle = (eps: (number | undefined)[]): BundleWire[] =>
       s.wires.map((w, i) => {
         const e = eps[i];
         return e === undefined ? { x: w.x, y: w.y, radius: w.fieldRadius } : { x: w.x, y: w.y, radius: w.fieldRadius, insulation: { thickness: (w.insulation as { thickness: number }).thickness, relPermittivity: e } };
       });
-    const epsHf = dielectrics.map((d) => d?.highFrequency);
-    const r = solveInsulatedBundle({ wires: bundle(epsHf), ground, referenceIndex: ref, harmonics: s.harmonics });
+    const epsHf = models.map((d) => d?.highFrequency);
+    const solve = (eps: (number | undefined)[], N: number): { C: Float64Array; L: Float64Array } =>
+      solveInsulatedBundle({ wires: bundle(eps), ground, referenceIndex: ref, harmonics: N });
+    let N = s.harmonics ?? 6;
+    let r = solve(epsHf, N);
+    if (s.harmonics === undefined) {
+      // Automatic refinement: double N until C and L change by less than 1e-7 (relative to the
+      // largest diagonal term) or the system would pass 800 unknowns (about a second of LU in ml-matrix).
+      const circles = s.wires.length + models.filter((d) => d !== undefined).length;
+      for (const next of [12, 24, 48]) {
+        if (circles * (2 * next + 1) > 800) break;
+        const q = solve(epsHf, next);
+        const ch = Math.max(relChange(q.C, r.C, n), relChange(q.L, r.L, n));
+        N = next;
+        r = q;
+        numericChange = ch;
+        if (ch < 1e-7) break;
+      }
+    }
+    numericHarmonics = N;
     Lhf = r.L;
     Chf = r.C;
-    // dC/d eps_w by central differences (step 1e-4 relative: truncation ~1e-8, round-off ~1e-12).
-    sens = dielectrics.map((d, w) => {
-      if (d === undefined || !(d.lossy || d.dispersive)) return new Float64Array(n * n);
+    // Wires whose insulation is described identically share one sensitivity dC/d eps (one group).
+    const groups = new Map<string, number[]>();
+    s.wires.forEach((w, i) => {
+      const d = models[i];
+      if (d === undefined || !(d.lossy || d.dispersive)) return;
+      const { thickness: _t, ...rest } = w.insulation as NonNullable<typeof w.insulation>;
+      const key = JSON.stringify(rest);
+      const g = groups.get(key);
+      if (g) g.push(i);
+      else groups.set(key, [i]);
+    });
+    // dC/d eps by central differences (step 1e-4 relative: truncation ~1e-8, round-off ~1e-12).
+    for (const members of groups.values()) {
+      const d = models[members[0]] as DielectricModel;
       const h = 1e-4 * d.highFrequency;
       const up = epsHf.slice();
       const dn = epsHf.slice();
-      up[w] = d.highFrequency + h;
-      dn[w] = Math.max(1, d.highFrequency - h);
-      const cu = solveInsulatedBundle({ wires: bundle(up), ground, referenceIndex: ref, harmonics: s.harmonics }).C;
-      const cd = solveInsulatedBundle({ wires: bundle(dn), ground, referenceIndex: ref, harmonics: s.harmonics }).C;
-      const step = (up[w] as number) - (dn[w] as number);
-      return cu.map((v, k) => (v - cd[k]) / step);
-    });
+      for (const i of members) {
+        up[i] = d.highFrequency + h;
+        dn[i] = Math.max(1, d.highFrequency - h);
+      }
+      const cu = solve(up, N).C;
+      const cd = solve(dn, N).C;
+      const step = (up[members[0]] as number) - (dn[members[0]] as number);
+      sens.push(cu.map((v, k) => (v - cd[k]) / step));
+      dielectrics.push(d);
+    }
   }
   const earth = typeof s.ground === 'object' ? s.ground : undefined;
   const rl = (fHz: number): { R: Float64Array; L: Float64Array } => {
@@ -183,7 +217,6 @@ function wiresModel(s: ResolvedWires): Model {
     const C = Chf.slice();
     const omega = 2 * Math.PI * fHz;
     dielectrics.forEach((d, w) => {
-      if (d === undefined || !(d.lossy || d.dispersive)) return;
       const e = d.at(fHz);
       const S = sens[w];
       for (let k = 0; k < n * n; k++) {
@@ -194,7 +227,7 @@ function wiresModel(s: ResolvedWires): Model {
     return { G, C };
   };
   const gLabel = s.ground === 'none' ? `free space, reference '${s.wires[ref].name}'` : s.ground === 'perfect' ? 'perfect ground' : earthLabel(s.ground);
-  const describe = `${n} wire conductor(s) [${conductors.join(', ')}] over ${gLabel}; ${s.solverUsed === 'thin-wire' ? 'thin-wire image method' : `multipole solver (${s.harmonics} harmonics)`}`;
+  const describe = `${n} wire conductor(s) [${conductors.join(', ')}] over ${gLabel}; ${s.solverUsed === 'thin-wire' ? 'thin-wire image method' : `multipole solver (${numericHarmonics} harmonics${Number.isNaN(numericChange) ? '' : `, last refinement changed C, L by ${numericChange.toExponential(1)}`})`}`;
   return { conductors, n, Lhf, Chf, rl, gc, describe };
 }
 
@@ -366,6 +399,15 @@ function printedModel(s: ResolvedMicrostrip | ResolvedStripline): Model {
     return { G, C: r.C.slice() };
   };
   return { conductors, n, Lhf: hf.L, Chf: hf.C, rl, gc, describe };
+}
+
+/** max |a - b| over the matrix, relative to the largest diagonal entry of b. */
+function relChange(a: Float64Array, b: Float64Array, n: number): number {
+  let d = 0;
+  let m = 0;
+  for (let i = 0; i < n * n; i++) d = Math.max(d, Math.abs(a[i] - b[i]));
+  for (let i = 0; i < n; i++) m = Math.max(m, Math.abs(b[i * n + i]));
+  return d / m;
 }
 
 const CACHE_LIMIT = 8192;

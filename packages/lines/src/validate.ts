@@ -192,7 +192,7 @@ function resolveWires(o: Obj): ResolvedWires {
   allowKeys(o, [], ['kind', 'ground', 'reference', 'wires', 'solver', 'harmonics']);
   const ground = resolveGround(o.ground, ['ground'], true);
   const solver = enumStr(o, 'solver', [], ['auto', 'thin-wire', 'numeric'] as const, 'auto');
-  const harmonics = num(o, 'harmonics', [], { integer: true, min: 1, max: 64, what: 'integer' }) ?? 12;
+  const harmonics = num(o, 'harmonics', [], { integer: true, min: 1, max: 64, what: 'integer' });
   if (!Array.isArray(o.wires)) throw sectionError(o.wires === undefined ? 'SECTION_REQUIRED' : 'SECTION_TYPE', ['wires'], 'must be a list of wires', o.wires);
   if (o.wires.length === 0) throw sectionError('SECTION_RANGE', ['wires'], 'must hold at least one wire', o.wires);
   const names = new Map<string, number>();
@@ -261,7 +261,7 @@ function resolveWires(o: Obj): ResolvedWires {
     throw sectionError('SECTION_UNSUPPORTED', ['solver'], `must be 'numeric' or 'auto' when a wire is insulated (wires[${i}] is): the thin-wire formulas have no insulation`, solver);
   }
   const solverUsed = solver === 'auto' ? (anyInsulated || thinWireProximity(wires, ground !== 'none') > AUTO_PROXIMITY ? 'numeric' : 'thin-wire') : solver;
-  return { kind: 'wires', ground, wires, solver, harmonics, referenceIndex, solverUsed };
+  return { kind: 'wires', ground, wires, solver, ...(harmonics === undefined ? {} : { harmonics }), referenceIndex, solverUsed };
 }
 
 /**

@@ -1,5 +1,5 @@
 import { describe, it, expect } from 'vitest';
-import { computeSection, carsonEarthImpedance, twoWire, SectionError } from '../index.ts';
+import { computeSection, carsonEarthImpedance, twoWire, SectionError, solveInsulatedBundle } from '../index.ts';
 import { expectClose } from './compare.ts';
 
 const sections: Record<string, unknown> = {
@@ -65,5 +65,26 @@ describe('SectionError', () => {
       expect((e as SectionError).code).toBe('SECTION_RANGE');
       expect((e as SectionError).path).toEqual(['width']);
     }
+  });
+});
+
+describe('computeSection', () => {
+  it('refines the harmonics automatically until touching insulation has converged', () => {
+    // Reference: the solver at N = 64 (convergence measured in bundleSolver.spec: geometric).
+    // The automatic loop stops when the last doubling changed C by < 1e-7 or at N = 48: the
+    // error at N = 48 is 4.5e-9 here, tolerance 1e-7.
+    const ins = { thickness: 0.5e-3, relPermittivity: 3 };
+    const w = [
+      { x: 0, y: 2e-3, radius: 1e-3, insulation: ins },
+      { x: 3e-3, y: 2e-3, radius: 1e-3, insulation: ins },
+    ];
+    const s = computeSection({ kind: 'wires', ground: 'perfect', wires: w.map((v, i) => ({ name: `w${i}`, ...v })) });
+    expect(s.describe).toContain('48 harmonics');
+    const ref = solveInsulatedBundle({ wires: w, ground: 'perfect', harmonics: 64 });
+    expectClose('c11', s.C[0], ref.C[0], 1e-7);
+    expectClose('c12', s.C[1], ref.C[1], 1e-7);
+    const fixed = computeSection({ kind: 'wires', ground: 'perfect', harmonics: 4, wires: w.map((v, i) => ({ name: `w${i}`, ...v })) });
+    expect(fixed.describe).toContain('4 harmonics');
+    expect(Math.abs(fixed.C[0] - ref.C[0]) / ref.C[0]).toBeGreaterThan(1e-3);
   });
 });
