@@ -23,18 +23,18 @@ export const capacitorLoad = defineLoad({
   create(p, ctx) {
     const c = p.capacitance;
     const g = (2 * c) / ctx.dtS;
-    let v = p.initialVoltage;
-    let i = 0;
+    // State in a typed array: a double kept in a closure variable is boxed anew on every write (V8).
+    const s = new Float64Array([p.initialVoltage, 0]); // [v_{n-1}, i_{n-1}]
     return {
       kind: 'linear',
       conductanceS: g,
-      history: (): number => -(g * v + i),
+      history: (): number => -(g * s[0] + s[1]),
       accept(vV: number): void {
         // Own model rather than the solver's current: the two agree, and this keeps the state exact.
-        i = g * (vV - v) - i;
-        v = vV;
+        s[1] = g * (vV - s[0]) - s[1];
+        s[0] = vV;
       },
-      storedEnergyJ: (): number => 0.5 * c * v * v,
+      storedEnergyJ: (): number => 0.5 * c * s[0] * s[0],
     };
   },
 });

@@ -21,17 +21,17 @@ export const inductorLoad = defineLoad({
   create(p, ctx) {
     const l = p.inductance;
     const g = ctx.dtS / (2 * l);
-    let v = 0;
-    let i = p.initialCurrent;
+    // State in a typed array: a double kept in a closure variable is boxed anew on every write (V8).
+    const s = new Float64Array([0, p.initialCurrent]); // [v_{n-1}, i_{n-1}]
     return {
       kind: 'linear',
       conductanceS: g,
-      history: (): number => i + g * v,
+      history: (): number => s[1] + g * s[0],
       accept(vV: number): void {
-        i = i + g * (v + vV);
-        v = vV;
+        s[1] = s[1] + g * (s[0] + vV);
+        s[0] = vV;
       },
-      storedEnergyJ: (): number => 0.5 * l * i * i,
+      storedEnergyJ: (): number => 0.5 * l * s[1] * s[1],
     };
   },
 });

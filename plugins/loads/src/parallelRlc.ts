@@ -37,19 +37,19 @@ export const parallelRlcLoad = defineLoad({
     const gl = l === undefined ? 0 : dt / (2 * l);
     const gc = (2 * c) / dt;
     const g = gr + gl + gc;
-    let v = p.initialVoltage;
-    let il = l === undefined ? 0 : p.initialCurrent;
-    let ic = 0;
+    // State in a typed array: a double kept in a closure variable is boxed anew on every write (V8).
+    const s = new Float64Array([p.initialVoltage, l === undefined ? 0 : p.initialCurrent, 0]); // [v, i_L, i_C] at n-1
+    const ll = l ?? 0;
     return {
       kind: 'linear',
       conductanceS: g,
-      history: (): number => il + (gl - gc) * v - ic,
+      history: (): number => s[1] + (gl - gc) * s[0] - s[2],
       accept(vV: number): void {
-        il = il + gl * (v + vV);
-        ic = gc * (vV - v) - ic;
-        v = vV;
+        s[1] = s[1] + gl * (s[0] + vV);
+        s[2] = gc * (vV - s[0]) - s[2];
+        s[0] = vV;
       },
-      storedEnergyJ: (): number => (l === undefined ? 0 : 0.5 * l * il * il) + 0.5 * c * v * v,
+      storedEnergyJ: (): number => 0.5 * ll * s[1] * s[1] + 0.5 * c * s[0] * s[0],
     };
   },
 });

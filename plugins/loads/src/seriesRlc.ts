@@ -40,21 +40,21 @@ export const seriesRlcLoad = defineLoad({
     const zc = c === undefined ? 0 : dt / (2 * c);
     const z = r + zl + zc;
     const g = 1 / z;
-    let i = p.initialCurrent;
-    let vl = 0;
-    let vc = c === undefined ? 0 : p.initialVoltage;
-    const e = (): number => -zl * i - vl + vc + zc * i;
+    // State in a typed array: a double kept in a closure variable is boxed anew on every write (V8).
+    const s = new Float64Array([p.initialCurrent, 0, c === undefined ? 0 : p.initialVoltage]); // [i, v_L, v_C] at n-1
+    const e = (): number => -zl * s[0] - s[1] + s[2] + zc * s[0];
+    const cc = c ?? 0;
     return {
       kind: 'linear',
       conductanceS: g,
       history: (): number => -e() * g,
       accept(vV: number): void {
         const iNew = g * (vV - e());
-        vl = zl * (iNew - i) - vl;
-        vc = vc + zc * (iNew + i);
-        i = iNew;
+        s[1] = zl * (iNew - s[0]) - s[1];
+        s[2] = s[2] + zc * (iNew + s[0]);
+        s[0] = iNew;
       },
-      storedEnergyJ: (): number => 0.5 * l * i * i + (c === undefined ? 0 : 0.5 * c * vc * vc),
+      storedEnergyJ: (): number => 0.5 * l * s[0] * s[0] + 0.5 * cc * s[2] * s[2],
     };
   },
 });

@@ -44,9 +44,9 @@ export function createFakeProbeRig(dtS: number, endS: number, id: string, phase 
   const traces: Float64Array[] = [];
   const traceNames: string[] = [];
   const ledgerView = {
-    delivered: new Map<string, number>([['gen', 0]]),
-    absorbed: new Map<string, number>([['gen', 0], ['load', 0]]),
-    stored: new Map<string, number>([['line', 0]]),
+    delivered: new Map<string, number>([['gen', 1 + phase]]),
+    absorbed: new Map<string, number>([['gen', 0.1 + phase], ['load', 0.5 + phase]]),
+    stored: new Map<string, number>([['line', 0.4 + phase]]),
     deliveredTotalJ: 0,
     absorbedTotalJ: 0,
     storedTotalJ: 0,
@@ -69,9 +69,7 @@ export function createFakeProbeRig(dtS: number, endS: number, id: string, phase 
       ledgerView.absorbedTotalJ = 0.6 * e;
       ledgerView.storedTotalJ = 0.4 * e;
       ledgerView.residualJ = 0;
-      ledgerView.delivered.set('gen', e);
-      ledgerView.absorbed.set('load', 0.6 * e);
-      ledgerView.stored.set('line', 0.4 * e);
+      // The maps keep their values: Map.set with a double allocates, and this fake must not.
       return ledgerView;
     },
     record(trace: TraceHandle, value: number): void {
