@@ -80,7 +80,8 @@ export function plotSpectrum(results: LoadedResults, options: SpectrumPlotOption
     ? { type: 'log', domain: fDomain, ticks: decades, tickFormat: (v: number) => formatTickOwnPrefix(v, 'Hz'), label: 'frequency [Hz]' }
     : { domain: fDomain, tickFormat: axisTickFormat(fDomain, 'Hz'), label: axisLabel('frequency', fDomain, 'Hz'), ticks: 8 };
   const units = [...new Set(series.map((s) => s.unit))];
-  const ref = units.length === 1 ? `dB re 1 ${units[0] || 'unit'}` : 'dB re 1 unit';
+  // A ratio (unit '' or '1') is plain dB; a quantity is dB relative to one of its unit.
+  const ref = units.length === 1 ? (units[0] === '' || units[0] === '1' ? 'dB' : `dB re 1 ${units[0]}`) : 'dB re 1 unit';
   const mags: number[] = [];
   const magMarks: Plot.Markish[] = [];
   const phaseMarks: Plot.Markish[] = [Plot.ruleY([0], { stroke: '#9a9a9a', strokeWidth: 0.8 })];
