@@ -3,6 +3,7 @@
  * every name turned into an index and every plugin parameter checked. The compile step turns it
  * into flat arrays; nothing after this point looks up a name.
  */
+import type { LineSection } from '@skein/lines';
 import type { DocPath, SourceLocation } from './errors.ts';
 
 /** Time settings of a run. */
@@ -31,9 +32,16 @@ export interface ResolvedLine {
   /** Inductance [H/m] and capacitance [F/m], symmetric positive definite. */
   L: Float64Array;
   C: Float64Array;
-  /** Resistance [ohm/m] and conductance [S/m]; all zero for a lossless line. */
+  /** Constant resistance [ohm/m] and conductance [S/m] given in the scenario; zero when absent. */
   R: Float64Array;
   G: Float64Array;
+  /**
+   * Frequency-dependent parameters when the line was given by a cross-section (R(f), L(f), G(f),
+   * C(f), Z and Y); L and C above are then its high-frequency values.
+   */
+  section?: LineSection;
+  /** The section as written in the scenario (kept for the digest and reports). */
+  sectionInput?: unknown;
   /** Where the line sits in the scenario document. */
   path: DocPath;
   /** How the matrices were obtained, for reports. */

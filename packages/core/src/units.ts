@@ -110,3 +110,21 @@ export function formatQuantity(value: number, unit: string, digits = 4): string 
   }
   return `${value.toExponential(digits - 1)} ${unit}`;
 }
+
+const ANY_UNITS: UnitSymbol[] = ['m', 's', 'Hz', 'V', 'A', 'ohm', 'S', 'F', 'H', 'W', 'J', 'K', 'C', 'H/m', 'F/m', 'ohm/m', 'S/m', 'ohm*m', 'm/s'];
+
+/**
+ * Parses text carrying any known unit ("2cm", "100ohm*m", "5.8e7S/m") to its SI value, or returns
+ * undefined when the text is not a quantity. Plain numbers pass through.
+ * @example parseAnyQuantity('2cm') // 0.02
+ */
+export function parseAnyQuantity(value: unknown): number | undefined {
+  if (typeof value === 'number') return Number.isFinite(value) ? value : undefined;
+  if (typeof value !== 'string') return undefined;
+  for (const u of ANY_UNITS) {
+    const x = parseQuantity(value, u);
+    if (x !== undefined && /[A-Za-zΩµμ]/.test(value)) return x;
+  }
+  const plain = parseQuantity(value, '1');
+  return plain;
+}

@@ -159,6 +159,13 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     options.onWarning?.(m);
   };
   const { registry } = options;
+  for (const l of scenario.lines) {
+    const key = l.R.some((x) => x !== 0) ? 'resistance' : l.G.some((x) => x !== 0) ? 'conductance' : undefined;
+    if (key) {
+      throw badInput([...l.path, key], 'must be zero or absent in the time domain: this solver version steps lossless lines (the frequency-domain solver takes losses)', 'nonzero', 'E_LOSSY_LATER', scenario.locate([...l.path, key]));
+    }
+    if (l.section) warn(`line ${l.id}: the time-domain solver uses the section's high-frequency L and C; its conductor, dielectric and earth losses are left out`);
+  }
   const modal = scenario.lines.map((l) => decomposeLine(l.L, l.C));
 
   // Shortest delay per line mode.

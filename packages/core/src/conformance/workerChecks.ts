@@ -3,7 +3,8 @@
  * (conformanceWorker.mjs) has imported the plugin module by its specifier.
  *
  * Allocation is measured as the sum of the positive increments of `heapUsed` over chunks of 1000
- * hook calls (a chunk in which a scavenge ran shows a decrease and adds nothing), after warming
+ * hook calls (a chunk in which a scavenge ran shows a decrease and adds nothing), least of three
+ * passes, after warming
  * the hooks up so that the optimising compiler has run, minus the same figure for a trivial
  * instance of the same shape stepped by an identical loop (the harness's own cost). Every loop is
  * compiled afresh (new Function) so that each instance gets its own monomorphic call sites.
@@ -48,6 +49,7 @@ const INSTANCE_KEYS: Record<AnyPlugin['kind'], readonly string[]> = {
 const STATE_STEPS = 2000;
 const CHUNK = 1000;
 const WARMUP_CHUNKS = 50;
+const PASSES = 3;
 
 type Instance = WaveformInstance | LoadInstance | ProbeInstance;
 
@@ -373,16 +375,22 @@ function measureGrowth(body: string, inst: Instance, aux: unknown, steps: number
   const loop = new Function('inst', 'aux', 'n', 'k0', body) as Loop;
   let k = 0;
   for (let c = 0; c < WARMUP_CHUNKS; c++, k += CHUNK) loop(inst, aux, CHUNK, k);
-  gc();
-  let grown = 0;
-  let last = process.memoryUsage().heapUsed;
-  for (let done = 0; done < steps; done += CHUNK, k += CHUNK) {
-    loop(inst, aux, Math.min(CHUNK, steps - done), k);
-    const now = process.memoryUsage().heapUsed;
-    if (now > last) grown += now - last;
-    last = now;
+  // The least of a few passes: a hook that allocates does so in every pass, while a background
+  // compilation or other one-off in the worker lands in one pass only.
+  let least = Infinity;
+  for (let pass = 0; pass < PASSES; pass++) {
+    gc();
+    let grown = 0;
+    let last = process.memoryUsage().heapUsed;
+    for (let done = 0; done < steps; done += CHUNK, k += CHUNK) {
+      loop(inst, aux, Math.min(CHUNK, steps - done), k);
+      const now = process.memoryUsage().heapUsed;
+      if (now > last) grown += now - last;
+      last = now;
+    }
+    least = Math.min(least, grown);
   }
-  return grown;
+  return least;
 }
 
 async function checkAllocation(p: AnyPlugin, params: Record<string, unknown>, input: WorkerInput): Promise<{ ok: boolean; message: string }> {

@@ -5,7 +5,7 @@
  * Per junction j and step n in [n0, n0 + nB) the update is exactly junctionStep.ts:
  *   w_p = (1 - f_p) buf_p[(n - k_p) & mask_p] + f_p buf_p[(n - k_p - 1) & mask_p]
  *   r = B w + sum_e c_e s_n[slot_e],  x_n = K r,  u_p = sum_i A_pi x_n,i - w_p  at (n & mask_out_p)
- * Valid when nB <= the shortest delay kMin and every ring holds at least k + nB slots (see
+ * Valid when nB <= the shortest delay kMin and every ring holds at least k + nB + 1 slots (see
  * junctionStepScalarBlocked.ts for the argument). Same operations in the same order per junction
  * and step as junctionStep, so results are bit-identical to it.
  *
@@ -17,7 +17,7 @@
 
 /**
  * Advances junctions [j0, j1) by nB steps, n0 .. n0 + nB - 1.
- * @param nB steps per visit, at most the shortest delay (and ring length >= k + nB).
+ * @param nB steps per visit, at most the shortest delay (and ring length >= k + nB + 1).
  * @returns the number of junction steps done, (j1 - j0) nB.
  * @example junctionStepBlocked(0, nJ, 0, 5, ...arrays) // 5 nJ, same state as 5 calls of junctionStep
  */

@@ -10,8 +10,10 @@
  * Why the order may change: a wave written at step m is read at m + k_q with k_q >= kMin, so with
  * nB <= kMin every wave a junction reads inside the block was written before the block began
  * (temporal blocking; the partition bound of DESIGN.md applied within one thread). The ring of a
- * mode with delay k must hold at least k + nB slots (mask + 1 >= k + nB), or a write inside the
- * block overwrites a slot still to be read. The arithmetic per junction and step is the same
+ * mode with delay k must hold at least k + nB + 1 slots (mask + 1 >= k + nB + 1; the engine's
+ * nextPow2(k + 2) is the case nB = 1), or a write inside the block overwrites a slot still to be
+ * read: writes at steps m in [n0, n0 + nB) and reads at m' in [n0 - k - 1, n0 + nB - 1 - k] differ
+ * by at most k + nB. The arithmetic per junction and step is the same
  * sequence of operations as junctionStepScalar, so results are bit-identical to it.
  *
  * Time levels in the strided arrays: step n uses slot[slotOff + (n - n0) slotStride + exSlot[e]]
@@ -23,7 +25,7 @@
 
 /**
  * Advances junctions [j0, j1) by nB steps, n0 .. n0 + nB - 1.
- * @param nB steps per visit, at most the shortest delay kMin (and ring length >= k + nB).
+ * @param nB steps per visit, at most the shortest delay kMin (and ring length >= k + nB + 1).
  * @returns the number of junction steps done, (j1 - j0) nB.
  * @example junctionStepScalarBlocked(0, nJ, 0, 5, ...arrays) // 5 nJ, same state as 5 calls of junctionStepScalar
  */

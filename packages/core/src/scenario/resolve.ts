@@ -10,7 +10,9 @@ import type { ResolvedJunction, ResolvedLine, ResolvedPart, ResolvedPort, Resolv
 import type { PluginRegistry } from '../plugins/registry.ts';
 import { resolveParams } from '../plugins/params.ts';
 import { parseQuantity, quantityName, unitExample, type UnitSymbol } from '../units.ts';
+import type { LineSection } from '@skein/lines';
 import { parseLocatedDocument, plainDocument, type LocatedDocument } from './document.ts';
+import { resolveSection } from './section.ts';
 
 /** The format version this engine reads. */
 export const SCENARIO_FORMAT_VERSION = 1;
@@ -27,21 +29,18 @@ export interface ResolveOptions {
   registry: PluginRegistry;
   /** File name for messages. */
   file?: string;
-  /**
-   * Turns a line's `section` (cross-section geometry) into matrices. Provided by the caller that
-   * has a geometry package; without it a `section` is refused with a clear error.
-   */
+  /** Turns a line's `section` into matrices; default: the line-geometry package (@skein/lines). */
   sectionResolver?: SectionResolver;
 }
 
-/** Matrices of a cross-section, high-frequency L and C plus constant R and G (all n x n row-major). */
+/** Matrices of a cross-section: high-frequency L and C (n x n row-major) and the full model. */
 export interface SectionMatrices {
   conductors: string[];
   L: Float64Array;
   C: Float64Array;
-  R?: Float64Array;
-  G?: Float64Array;
   origin: string;
+  /** The frequency-dependent model, kept for the frequency-domain and lossy solvers. */
+  model?: LineSection;
 }
 
 /** Resolves a `section` object at `path` (throws located errors through `doc.fail`). */
@@ -193,6 +192,7 @@ function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number
   let R: Float64Array | undefined;
   let G: Float64Array | undefined;
   let origin: string;
+  let section: ResolvedLine['section'];
   const hasMatrices = l.inductance !== undefined || l.capacitance !== undefined;
   const hasZv = l.impedance !== undefined || l.velocity !== undefined;
   const forms = [hasMatrices, hasZv, l.section !== undefined].filter(Boolean).length;
@@ -219,21 +219,17 @@ function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number
     if (l.conductance !== undefined) G = matrix(doc, [...path, 'conductance'], l.conductance, 1, 'S/m', true);
     origin = 'impedance and velocity';
   } else {
-    if (!opts.sectionResolver) {
-      throw doc.fail([...path, 'section'], 'needs the line-geometry package (@skein/lines); give inductance and capacitance instead, or run through the skein command', l.section, 'E_NO_SECTION_SUPPORT');
-    }
     if (l.resistance !== undefined || l.conductance !== undefined) {
       throw doc.fail(path, 'must not give resistance or conductance together with a section (the section computes them)', Object.keys(l), 'E_LINE_FORM');
     }
-    const s = opts.sectionResolver(l.section, [...path, 'section'], doc);
+    const s = (opts.sectionResolver ?? resolveSection)(l.section, [...path, 'section'], doc);
+    section = s.model;
     if (conductors !== undefined && conductors.length !== s.conductors.length) {
       throw doc.fail([...path, 'conductors'], `must name ${s.conductors.length} conductors, as the section has`, l.conductors, 'E_MATRIX');
     }
     conductors ??= s.conductors;
     L = s.L;
     C = s.C;
-    R = s.R;
-    G = s.G;
     origin = s.origin;
   }
   const n = Math.round(Math.sqrt(L.length));
@@ -241,11 +237,7 @@ function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number
   if (conductors.length !== n) throw doc.fail([...path, 'conductors'], `must name ${n} conductors, one per matrix row`, l.conductors, 'E_MATRIX');
   R ??= new Float64Array(n * n);
   G ??= new Float64Array(n * n);
-  if (R.some((x) => x !== 0) || G.some((x) => x !== 0)) {
-    const key = R.some((x) => x !== 0) ? 'resistance' : 'conductance';
-    throw doc.fail([...path, key], 'must be zero or absent: lossy lines come in a later version of the time-domain solver', l[key] ?? 'from section', 'E_LOSSY_LATER');
-  }
-  return { id, index, from, to, lengthM, conductors, L, C, R, G, path, origin };
+  return { id, index, from, to, lengthM, conductors, L, C, R, G, path, origin, section, sectionInput: section ? l.section : undefined };
 }
 
 function velocity(doc: LocatedDocument, path: DocPath, v: unknown): number {
@@ -445,7 +437,7 @@ export function resolveScenarioDocument(doc: LocatedDocument, options: ResolveOp
 /** SHA-256 (hex) of a canonical JSON form: typed arrays as lists, document paths and file left out. */
 export function digestOf(value: unknown): string {
   const json = JSON.stringify(value, (key, x) => {
-    if (key === 'path' || key === 'file') return undefined;
+    if (key === 'path' || key === 'file' || key === 'section' || key === 'locate') return undefined;
     if (ArrayBuffer.isView(x)) return Array.from(x as Float64Array);
     if (x === Infinity) return 'Infinity';
     return x;

@@ -1,0 +1,99 @@
+// Small compiled networks for the blocked-kernel tests: core's own compile step on scenario text,
+// with the rings re-laid out large enough for nB steps per visit (nextPow2(k + nB + 1) slots).
+import { compileScenario, resolveScenarioText, type Plan } from '../../index.ts';
+import { testRegistry } from '../../__tests__/fixtures.ts';
+
+function nextPow2(x: number): number {
+  let p = 1;
+  while (p < x) p <<= 1;
+  return p;
+}
+
+/**
+ * One-conductor star-and-chain network: delays 6..12 steps (some fractional), resistors, a step
+ * source that switches on at t = 3 dt (so the slot value changes inside a block), an open end.
+ */
+export const scalarScenario = `
+skein: 1
+time: { end: 400ns, step: 1ns }
+lines:
+  a: { from: S, to: H, length: 1.3m, impedance: 50ohm, velocity: 2e8m/s }
+  b: { from: H, to: P, length: 1.7m, impedance: 75ohm, velocity: 2e8m/s }
+  c: { from: H, to: Q, length: 2.05m, impedance: 120ohm, velocity: 2e8m/s }
+  d: { from: Q, to: O, length: 2.4m, impedance: 90ohm, velocity: 2e8m/s }
+junctions:
+  S:
+    nodes: { s: [a] }
+    parts:
+      g: { source: test-step, between: [s, ref], amplitude: 1, delay: 3ns, resistance: 20ohm }
+  H: { nodes: { h: [a, b, c] } }
+  P:
+    nodes: { p: [b] }
+    parts:
+      rp: { load: test-resistor, between: [p, ref], resistance: 33ohm }
+  Q:
+    nodes: { q: [c, d] }
+    parts:
+      rq: { load: test-resistor, between: [q, ref], resistance: 470ohm }
+  O: { nodes: { o: [d] } }
+`;
+
+/** Two-conductor lines (two modes with different speeds), so the general kernel runs. */
+export const coupledScenario = `
+skein: 1
+time: { end: 400ns, step: 1ns }
+lines:
+  a: { from: S, to: H, length: 1.5m, conductors: [x, y], inductance: [[400nH/m, 80nH/m], [80nH/m, 380nH/m]], capacitance: [[90pF/m, -15pF/m], [-15pF/m, 85pF/m]] }
+  b: { from: H, to: P, length: 1.9m, conductors: [x, y], inductance: [[420nH/m, 60nH/m], [60nH/m, 400nH/m]], capacitance: [[80pF/m, -10pF/m], [-10pF/m, 82pF/m]] }
+  c: { from: H, to: Q, length: 2.3m, conductors: [x, y], inductance: [[400nH/m, 80nH/m], [80nH/m, 380nH/m]], capacitance: [[90pF/m, -15pF/m], [-15pF/m, 85pF/m]] }
+junctions:
+  S:
+    nodes: { sx: [a.x], sy: [a.y] }
+    parts:
+      g: { source: test-step, between: [sx, ref], amplitude: 1, delay: 4ns, resistance: 25ohm }
+      ry: { load: test-resistor, between: [sy, ref], resistance: 100ohm }
+  H: { nodes: { hx: [a.x, b.x, c.x], hy: [a.y, b.y, c.y] } }
+  P:
+    nodes: { px: [b.x], py: [b.y] }
+    parts:
+      rx: { load: test-resistor, between: [px, ref], resistance: 60ohm }
+      rpy: { load: test-resistor, between: [py, ref], resistance: 150ohm }
+  Q:
+    nodes: { qx: [c.x], qy: [c.y] }
+    parts:
+      rqx: { load: test-resistor, between: [qx, qy], resistance: 200ohm }
+      rqy: { load: test-resistor, between: [qy, ref], resistance: 47ohm }
+`;
+
+/** A compiled plan whose rings hold nextPow2(k + maxBlock + 1) slots, plus its shortest delay. */
+export interface BlockedPlan {
+  plan: Plan;
+  kMin: number;
+}
+
+/** Compiles scenario text and widens every ring for blocks of up to maxBlock steps. */
+export async function compileWide(text: string, maxBlock: number): Promise<BlockedPlan> {
+  const registry = testRegistry();
+  const plan = await compileScenario(resolveScenarioText(text, { registry, file: 'blocked.yaml' }), { registry });
+  const remap = new Map<number, { off: number; mask: number }>();
+  let len = 0;
+  const nModes = plan.ringMask.length;
+  for (let q = 0; q < nModes; q++) {
+    const size = nextPow2(plan.delays[q].k + maxBlock + 1);
+    remap.set(plan.fwdOff[q], { off: len, mask: size - 1 });
+    len += size;
+    remap.set(plan.bwdOff[q], { off: len, mask: size - 1 });
+    len += size;
+  }
+  for (let p = 0; p < plan.nPorts; p++) {
+    const i = remap.get(plan.pIn[p])!;
+    const o = remap.get(plan.pOut[p])!;
+    plan.pIn[p] = i.off;
+    plan.pInMask[p] = i.mask;
+    plan.pOut[p] = o.off;
+    plan.pOutMask[p] = o.mask;
+  }
+  plan.wave = new Float64Array(len);
+  const kMin = Math.min(...plan.delays.map((d) => d.k));
+  return { plan, kMin };
+}
