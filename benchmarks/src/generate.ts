@@ -66,8 +66,8 @@ export interface KernelNet {
   /** Shortest and longest whole-step delay over all line modes. */
   kMin: number;
   kMax: number;
-  /** Ring slots beyond the delay: every ring holds at least k + ringPad slots (power of two). */
-  ringPad: number;
+  /** Largest nB a temporally blocked kernel may use on these rings: every ring holds nextPow2(k + maxBlockSteps + 1) slots. */
+  maxBlockSteps: number;
   jPort: Int32Array; jX: Int32Array; jN: Int32Array; jB: Int32Array; jK: Int32Array; jA: Int32Array; jEx: Int32Array;
   pIn: Int32Array; pInMask: Int32Array; pK: Int32Array; pF: Float64Array; pOut: Int32Array; pOutMask: Int32Array;
   pNode: Int32Array; pY2: Float64Array;
@@ -276,11 +276,11 @@ function delaySteps(spec: NetworkSpec, l: number, m: number): number {
 /**
  * Lays a drawn network out as the kernels' flat arrays, exactly as core's compile step would
  * (same port order, same matrix offsets, same stamping order, K from ml-matrix's inverse).
- * @param ringPad every ring holds nextPow2(k + ringPad) slots; 2 is the engine's choice, a
- *   temporally blocked kernel advancing nB steps per visit needs ringPad >= nB.
+ * @param maxBlockSteps rings hold nextPow2(k + maxBlockSteps + 1) slots, enough for a temporally
+ *   blocked kernel advancing up to maxBlockSteps steps per visit; 1 (default) is the engine's layout.
  * @example buildKernelNet(drawNetwork({ nJunctions: 1e3, topology: 'mesh', conductors: 4, numbering: 'bfs' })).nPorts
  */
-export function buildKernelNet(spec: NetworkSpec, ringPad = 2): KernelNet {
+export function buildKernelNet(spec: NetworkSpec, maxBlockSteps = 1): KernelNet {
   const n = spec.options.conductors;
   const nJ = spec.options.nJunctions;
   const E = spec.lineFrom.length;
@@ -300,7 +300,7 @@ export function buildKernelNet(spec: NetworkSpec, ringPad = 2): KernelNet {
       modeK[q] = k;
       kMin = Math.min(kMin, k);
       kMax = Math.max(kMax, k);
-      const len = nextPow2(k + Math.max(2, ringPad));
+      const len = nextPow2(k + Math.max(1, maxBlockSteps) + 1);
       ringMask[q] = len - 1;
       fwdOff[q] = waveLen;
       waveLen += len;
@@ -416,7 +416,7 @@ export function buildKernelNet(spec: NetworkSpec, ringPad = 2): KernelNet {
   }
   const slot = Float64Array.of(SOURCE_V);
   return {
-    spec, conductors: n, nJunctions: nJ, nLines: E, nPorts, kMin, kMax, ringPad: Math.max(2, ringPad),
+    spec, conductors: n, nJunctions: nJ, nLines: E, nPorts, kMin, kMax, maxBlockSteps: Math.max(1, maxBlockSteps),
     jPort, jX, jN, jB, jK, jA, jEx, pIn, pInMask, pK, pF, pOut, pOutMask, pNode, pY2,
     exRow, exSlot, exCoef, slot, mat, wave: new Float64Array(waveLen), rhs: new Float64Array(R), inc: new Float64Array(nPorts), x: new Float64Array(nJ * R),
   };
@@ -495,6 +495,6 @@ export function toScenarioData(spec: NetworkSpec, nSteps: number): Record<string
  * Draws and lays out a network in one call.
  * @example generateKernelNet({ nJunctions: 1e5, topology: 'tree', conductors: 1, numbering: 'bfs' }, 5)
  */
-export function generateKernelNet(options: GenerateOptions, ringPad = 2): KernelNet {
-  return buildKernelNet(drawNetwork(options), ringPad);
+export function generateKernelNet(options: GenerateOptions, maxBlockSteps = 1): KernelNet {
+  return buildKernelNet(drawNetwork(options), maxBlockSteps);
 }

@@ -97,10 +97,10 @@ function fullCases(): BenchCase[] {
   const out: BenchCase[] = [];
   for (const N of [1e3, 1e4, 1e5, 1e6]) {
     for (const conductors of [1, 4] as const) {
-      // Ring memory: a line mode with delay k holds 2 nextPow2(k + nB) doubles. Long delays at
+      // Ring memory: a line mode with delay k holds 2 nextPow2(k + nB + 1) doubles. Long delays at
       // 10^6 junctions (and 4 conductors at 10^5) would need several GiB: shorter ranges there.
       let delayMax = 200;
-      if (N >= 1e6) delayMax = conductors === 1 ? 20 : 11;
+      if (N >= 1e6) delayMax = conductors === 1 ? 20 : 10;
       else if (N >= 1e5 && conductors === 4) delayMax = 50;
       out.push({ nJunctions: N, conductors, topology: 'tree', numbering: 'bfs', delayMin: 5, delayMax });
       out.push({ nJunctions: N, conductors, topology: 'tree', numbering: 'random', delayMin: 5, delayMax });

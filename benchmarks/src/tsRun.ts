@@ -12,13 +12,13 @@ import type { KernelNet } from './generate.ts';
 /**
  * Advances a network nSteps steps from the current state with the reference (nB = 1) or the
  * temporally blocked kernel (nB > 1 steps per junction visit; needs nB <= net.kMin and
- * nB <= net.ringPad).
+ * nB <= net.maxBlockSteps).
  * @param kind 0: one-conductor kernel, 1: general kernel.
  * @throws Error when nB is larger than the network allows.
  */
 export function stepNet(net: KernelNet, kind: 0 | 1, nSteps: number, nB: number, slotRows: Float64Array): void {
   const t = net;
-  if (nB > 1 && (nB > t.kMin || nB > t.ringPad)) throw new Error(`benchmarks: nB = ${nB} exceeds the shortest delay (${t.kMin}) or the ring pad (${t.ringPad})`);
+  if (nB > 1 && (nB > t.kMin || nB > t.maxBlockSteps)) throw new Error(`benchmarks: nB = ${nB} exceeds the shortest delay (${t.kMin}) or what the rings were sized for (${t.maxBlockSteps})`);
   const nJ = t.nJunctions;
   if (nB <= 1) {
     for (let n = 0; n < nSteps; n++) {
