@@ -63,6 +63,11 @@ export interface SetupContext {
 export interface WaveformInstance {
   /** Step hook: the waveform's value at time t [s], in the source's unit (V or A). */
   value(tS: number): number;
+  /**
+   * Frequency-domain hook (optional): the Laplace transform W(s) at s = sigma + j omega into
+   * out[0] (real) and out[1] (imaginary). Without it a spectral solver transforms samples of value(t).
+   */
+  laplace?(sigma: number, omega: number, out: Float64Array): void;
   /** Shortest feature of the waveform [s] (a rise time); the automatic time step resolves it. */
   readonly shortestFeatureS?: number;
   /** Time after which the value no longer changes [s], if any. */
@@ -97,13 +102,19 @@ export interface LinearLoadInstance {
   conductanceAt?(tS: number): number;
   /** Energy held inside the load now [J] (capacitor, inductor), for the ledger. */
   storedEnergyJ?(): number;
-  finish?(error?: unknown): void;
+  /**
+   * Frequency-domain hook: the load's admittance at angular frequency omega [rad/s] into
+   * out[0] (real, S) and out[1] (imaginary, S). Required for spectral runs.
+   */
+  admittance?(omegaRadS: number, out: Float64Array): void;
+  /** Finish hook; may return structured results for the results file (under the part's id). */
+  finish?(error?: unknown): StructuredOutput | void;
 }
 
 /** An ideal zero-volt branch (a short circuit), solved exactly as a constraint. */
 export interface ShortLoadInstance {
   readonly kind: 'short';
-  finish?(error?: unknown): void;
+  finish?(error?: unknown): StructuredOutput | void;
 }
 
 /**
@@ -115,8 +126,15 @@ export interface NonlinearLoadInstance {
   evaluate(vV: number, tS: number, out: Float64Array): void;
   /** Step hook, after the step converged. */
   accept?(vV: number, iA: number, tS: number): void;
+  /**
+   * Step hook (optional): limits a Newton update from vOld to vNew [V] and returns the voltage to
+   * use (for exponential devices, e.g. a logarithmic limit above a critical voltage).
+   */
+  limit?(vNew: number, vOld: number): number;
   storedEnergyJ?(): number;
-  finish?(error?: unknown): void;
+  /** Frequency-domain hook: small-signal admittance at omega around 0 V, as for linear loads. */
+  admittance?(omegaRadS: number, out: Float64Array): void;
+  finish?(error?: unknown): StructuredOutput | void;
 }
 
 export type LoadInstance = LinearLoadInstance | ShortLoadInstance | NonlinearLoadInstance;
@@ -235,7 +253,7 @@ export function defineProbe<P extends ParamSchema>(def: Def<ProbePlugin<P>>): Pr
 
 /** The hook names, by plugin kind (guarded by a type test). */
 export const HOOK_NAMES = {
-  source: ['create', 'value', 'finish'],
-  load: ['create', 'history', 'accept', 'conductanceAt', 'evaluate', 'storedEnergyJ', 'finish'],
+  source: ['create', 'value', 'laplace', 'finish'],
+  load: ['create', 'history', 'accept', 'conductanceAt', 'evaluate', 'limit', 'storedEnergyJ', 'admittance', 'finish'],
   probe: ['create', 'sample', 'finish'],
 } as const;

@@ -112,7 +112,13 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     if (finished) return outputs;
     finished = true;
     for (const w of plan.waveforms) safeFinish(() => w.instance.finish?.(failure), w.type, warnings);
-    for (const p of plan.parts) if (p.load) safeFinish(() => p.load!.finish?.(failure), p.part.type, warnings);
+    for (const p of plan.parts) {
+      if (!p.load) continue;
+      safeFinish(() => {
+        const out = p.load!.finish?.(failure);
+        if (out) outputs[p.part.id] = out;
+      }, p.part.type, warnings);
+    }
     for (const p of probes) {
       safeFinish(() => {
         const out = p.inst.finish?.(failure);
