@@ -3,9 +3,9 @@
  * (conformanceWorker.mjs) has imported the plugin module by its specifier.
  *
  * Allocation is measured as the sum of the positive increments of `heapUsed` over chunks of 1000
- * hook calls (a chunk in which a scavenge ran shows a decrease and adds nothing), least of three
- * passes, after warming
- * the hooks up so that the optimising compiler has run, minus the same figure for a trivial
+ * hook calls (a chunk in which a scavenge ran shows a decrease and adds nothing), the least of
+ * three passes, after warming the hooks up so that the optimising compiler has run, minus the
+ * same figure for a trivial
  * instance of the same shape stepped by an identical loop (the harness's own cost). Every loop is
  * compiled afresh (new Function) so that each instance gets its own monomorphic call sites.
  */
