@@ -165,8 +165,10 @@ export function renderReport(results: LoadedResults, options: ReportOptions = {}
     out.push('</table>');
   }
   if (net.probes.length > 0) {
-    out.push('<h3>Probes</h3><table><tr><th>probe</th><th>type</th></tr>');
-    for (const p of net.probes) out.push(`<tr><td>${escapeXml(p.id)}</td><td>${escapeXml(p.type)}</td></tr>`);
+    // Grouped by type: a scan can place dozens of point probes, one row each would bury the rest.
+    const types = [...new Set(net.probes.map((p) => p.type))];
+    out.push('<h3>Probes</h3><table id="probes"><tr><th>type</th><th>probes</th></tr>');
+    for (const t of types) out.push(`<tr><td>${escapeXml(t)}</td><td>${escapeXml(net.probes.filter((p) => p.type === t).map((p) => p.id).join(', '))}</td></tr>`);
     out.push('</table>');
   }
 

@@ -160,7 +160,7 @@ function fromPoints(results: LoadedResults, options: SpaceTimeOptions): SpaceTim
   for (const [id, out] of Object.entries(outputs)) {
     if (!isPointOutput(out)) continue;
     const candidates = names.filter((n, i) => probes[i] === id && units[i] === 'V');
-    const trace = options.conductor !== undefined ? candidates.find((n) => n.endsWith(options.conductor!)) : candidates[0];
+    const trace = options.conductor !== undefined ? candidates.find((n) => n.endsWith(`.${options.conductor}`)) : candidates[0];
     if (trace !== undefined) points.push({ id, line: out.line, positionM: out.positionM, trace });
   }
   const net = networkOf(results);

@@ -88,7 +88,7 @@ export function plotSpectrum(results: LoadedResults, options: SpectrumPlotOption
   const legend: LegendItem[] = [];
   series.forEach((s, k) => {
     const { colour, dash } = seriesStyle(k);
-    legend.push({ label: units.length === 1 ? s.name : `${s.name} (${s.unit})`, colour, dash });
+    legend.push({ label: units.length === 1 ? s.name : `${s.name} (${s.unit === '' || s.unit === '1' ? 'ratio' : s.unit})`, colour, dash });
     // |X| = 0 has no level in dB; such points are left out (NaN breaks the line there).
     const mag = f.map((_, i) => { const a = Math.hypot(s.re[i], s.im[i]); return a > 0 ? 20 * Math.log10(a) : NaN; });
     const ph = f.map((_, i) => (Math.atan2(s.im[i], s.re[i]) * 180) / Math.PI);

@@ -45,3 +45,11 @@ describe('renderReport', () => {
     expect(h.match(/class="skein-plot"/g)).toHaveLength(1);
   });
 });
+
+describe('renderReport', () => {
+  it('groups probes by type in one row each', () => {
+    const h = renderReport(makeResults(), { spaceTime: false, spectrum: false });
+    expect(h).toContain('<tr><td>line-point</td><td>pf0, pf1, pf2, pf3, pf4, pf5, pb0, pb1, pb2, pb3, pb4</td></tr>');
+    expect(h).toContain('<tr><td>energy-ledger</td><td>energy</td></tr>');
+  });
+});
