@@ -13,6 +13,8 @@ import { createProgress } from './progress.ts';
 import { STANDARD_PLUGINS } from './standardPlugins.ts';
 import { formatCheck, formatInspect, formatRunSummary } from './summary.ts';
 import { toCsv } from './export.ts';
+import { formatParams, lineParams, parseFrequencies } from './params.ts';
+import { sectionSchema } from '@skein/lines';
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 /** The built-in demo scenario. */
@@ -29,7 +31,10 @@ commands:
   inspect RESULTS              summarise a results file
   export RESULTS --csv [--out PATH]
                                write the traces as CSV (stdout without --out)
-  schema                       print the scenario JSON Schema
+  params FILE [--at F1,F2..] [--json]
+                               per-unit-length R, L, G, C of every line at the given
+                               frequencies (default 0,50Hz,1MHz,100MHz), Zc, modal velocities
+  schema [--section]           print the scenario JSON Schema (or the cross-section schema)
 
 options for every command that reads a scenario:
   --plugin SPEC                also load this plugin module (repeatable)
@@ -91,10 +96,12 @@ export function defaultResultsPath(scenarioFile: string): string {
 
 async function runFile(file: string, outPath: string, flags: Flags, io: Io): Promise<void> {
   const registry = await buildRegistry(flags);
+  const t0 = performance.now();
   const sc = readScenario(file, registry);
   const plan = await compileScenario(sc, { registry });
+  const compileS = (performance.now() - t0) / 1000;
   const progress = createProgress(`running ${basename(file)}`, process.stderr, flags.quiet);
-  const result = await runPlan(plan, { registry, onProgress: (f) => progress.update(f) });
+  const result = await runPlan(plan, { registry, onProgress: (f) => progress.update(f) }, compileS);
   progress.done();
   writeResults(outPath, result, file);
   io.out(formatRunSummary(result, outPath));
@@ -108,6 +115,8 @@ interface Flags {
   json?: boolean;
   csv?: boolean;
   help?: boolean;
+  at?: string;
+  section?: boolean;
 }
 
 /**
@@ -128,6 +137,8 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         quiet: { type: 'boolean', short: 'q' },
         json: { type: 'boolean' },
         csv: { type: 'boolean' },
+        at: { type: 'string' },
+        section: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
     });
@@ -183,8 +194,15 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         else process.stdout.write(csv);
         return 0;
       }
+      case 'params': {
+        const file = needFile(rest, 'params', 'a scenario file');
+        const registry = await buildRegistry(flags);
+        const list = lineParams(readScenario(file, registry), parseFrequencies(flags.at));
+        io.out(flags.json ? JSON.stringify(list, null, 2) : formatParams(list));
+        return 0;
+      }
       case 'schema':
-        io.out(JSON.stringify(scenarioSchema, null, 2));
+        io.out(JSON.stringify(flags.section ? sectionSchema : scenarioSchema, null, 2));
         return 0;
       default:
         io.err(`skein: unknown command "${command}"\n\n${USAGE}`);

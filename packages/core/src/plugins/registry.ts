@@ -3,6 +3,7 @@
  * registered by module specifier (from the user's configuration or `--plugin` flags), never by a
  * scenario, so a scenario can only name types that are already registered.
  */
+import { createRequire } from 'node:module';
 import { pathToFileURL } from 'node:url';
 import { duplicatePlugin, pluginLoadFailed, SkeinError } from '../errors.ts';
 import type { AnyPlugin, LoadPlugin, ProbePlugin, SourcePlugin } from './api.ts';
@@ -68,14 +69,12 @@ export function isPlugin(x: unknown): x is AnyPlugin {
 export function resolvePluginSpecifier(specifier: string, parentUrl = pathToFileURL(`${process.cwd()}/`).href): string {
   if (/^[a-z]+:/.test(specifier)) return specifier;
   if (specifier.startsWith('.') || specifier.startsWith('/')) return new URL(specifier, parentUrl).href;
+  // Node 20's import.meta.resolve ignores a parent URL, so bare names go through the CommonJS
+  // resolver of the parent, which honours package "exports" the same way for these packages.
   try {
-    return import.meta.resolve(specifier, parentUrl);
+    return pathToFileURL(createRequire(parentUrl).resolve(specifier)).href;
   } catch (e) {
-    try {
-      return import.meta.resolve(specifier);
-    } catch {
-      throw pluginLoadFailed(specifier, `cannot be resolved from ${parentUrl}`, e);
-    }
+    throw pluginLoadFailed(specifier, `cannot be resolved from ${parentUrl}`, e);
   }
 }
 
