@@ -20,7 +20,7 @@ export const gaussianSource = defineSource({
   summary: 'A Gaussian pulse of standard deviation `width` centred at `centre`',
   params: {
     amplitude: AMPLITUDE,
-    centre: { unit: 's', optional: true, summary: 'time of the peak; when left out, 5 width (the value at t = 0 is 3.7e-6 of the peak)' },
+    centre: { unit: 's', optional: true, min: 0, summary: 'time of the peak; when left out, 5 width (the value at t = 0 is 3.7e-6 of the peak)' },
     width: { unit: 's', min: 0, exclusiveMin: true, summary: 'standard deviation sigma of the pulse (FWHM = 2.3548 sigma)' },
   },
   create(p) {
