@@ -234,12 +234,17 @@ function fromPoints(results: LoadedResults, options: SpaceTimeOptions): SpaceTim
 }
 
 /**
- * Resamples a map onto a w x h pixel grid by bilinear interpolation (pixel centres), row 0 at
- * the earliest time. Times and positions must increase.
+ * Resamples a map onto a w x h pixel grid, row 0 at the earliest time. Across positions the
+ * voltage is interpolated linearly at each pixel centre. Along time: when the window holds no
+ * more samples than rows, linear interpolation at the row's centre time; when it holds more, each
+ * pixel keeps the sample of largest magnitude within its row's time bin (sign kept), so that a
+ * short transient in a long record still shows instead of falling between two rows.
+ * Times and positions must increase.
  */
 export function resampleMap(map: SpaceTimeMap, w: number, h: number, timeRangeS?: [number, number]): { grid: Float64Array; x: [number, number]; t: [number, number] } {
   const P = map.positionsM;
   const T = map.timesS;
+  const V = map.values;
   const nx = P.length;
   const x0 = P[0];
   const x1 = P[nx - 1];
@@ -253,19 +258,30 @@ export function resampleMap(map: SpaceTimeMap, w: number, h: number, timeRangeS?
     ix[c] = j;
     fx[c] = Math.min(1, Math.max(0, (x - P[j]) / (P[j + 1] - P[j])));
   }
+  const at = (k: number, c: number): number => (1 - fx[c]) * V[k * nx + ix[c]] + fx[c] * V[k * nx + ix[c] + 1];
+  let first = 0;
+  while (first < T.length && T[first] < t0) first++;
+  let last = T.length - 1;
+  while (last > 0 && T[last] > t1) last--;
+  if (last - first + 1 > h) {
+    for (let r = 0, k = first; r < h; r++) {
+      const tb = t0 + ((r + 1) / h) * (t1 - t0);
+      const kStart = k;
+      for (let c = 0; c < w; c++) grid[r * w + c] = at(Math.min(kStart, last), c);
+      for (; k <= last && (T[k] < tb || r === h - 1); k++) {
+        for (let c = 0; c < w; c++) {
+          const v = at(k, c);
+          if (Math.abs(v) > Math.abs(grid[r * w + c])) grid[r * w + c] = v;
+        }
+      }
+    }
+    return { grid, x: [x0, x1], t: [t0, t1] };
+  }
   for (let r = 0, k = 0; r < h; r++) {
     const t = t0 + ((r + 0.5) / h) * (t1 - t0);
     while (k < T.length - 2 && T[k + 1] < t) k++;
     const ft = Math.min(1, Math.max(0, (t - T[k]) / (T[k + 1] - T[k])));
-    const row0 = k * nx;
-    const row1 = (k + 1) * nx;
-    for (let c = 0; c < w; c++) {
-      const j = ix[c];
-      const f = fx[c];
-      const a = (1 - f) * map.values[row0 + j] + f * map.values[row0 + j + 1];
-      const b = (1 - f) * map.values[row1 + j] + f * map.values[row1 + j + 1];
-      grid[r * w + c] = (1 - ft) * a + ft * b;
-    }
+    for (let c = 0; c < w; c++) grid[r * w + c] = (1 - ft) * at(k, c) + ft * at(k + 1, c);
   }
   return { grid, x: [x0, x1], t: [t0, t1] };
 }

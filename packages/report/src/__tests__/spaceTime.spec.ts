@@ -69,7 +69,7 @@ describe('resampleMap', () => {
     // time and 87 V in position: 100 V (10 % of the 1 kV peak) covers both.
     const map = spaceTimeData(makeResults({ spaceTimeOutput: true }));
     const w = 200;
-    const h = 150;
+    const h = 400; // one row per sample or more: the interpolating path
     const { grid, x, t } = resampleMap(map, w, h);
     let worst = 0;
     for (let r = 0; r < h; r++) {
@@ -81,6 +81,26 @@ describe('resampleMap', () => {
     }
     expect(worst).toBeLessThan(100);
     expect(worst).toBeGreaterThan(0);
+  });
+});
+
+describe('resampleMap', () => {
+  it('keeps a one-sample spike when the record has more samples than rows', () => {
+    const nt = 10_000;
+    const map = {
+      positionsM: Float64Array.from([0, 1]),
+      timesS: Float64Array.from({ length: nt }, (_, i) => i * 1e-9),
+      values: new Float64Array(2 * nt),
+      unit: 'V', source: 'test', boundaries: [],
+    };
+    map.values[2 * 7_777] = -500; // at x = 0, t = 7.777 us
+    map.values[2 * 7_777 + 1] = -500;
+    const { grid } = resampleMap(map, 4, 100);
+    const row = Math.floor((7_777 / (nt - 1)) * 100);
+    expect(Array.from(grid.subarray(row * 4, row * 4 + 4))).toEqual([-500, -500, -500, -500]);
+    let others = 0;
+    for (let i = 0; i < grid.length; i++) if (Math.floor(i / 4) !== row) others = Math.max(others, Math.abs(grid[i]));
+    expect(others).toBe(0);
   });
 });
 
