@@ -3,7 +3,7 @@
  * script, no external fetch) with the scenario summary, derived line data, plots, peaks, ledger
  * table, warnings and the safety caution.
  */
-import { formatQuantity, type LineDerived, type LoadedResults, type TracePeak } from '@skein/core';
+import { formatQuantity, InputError, type LineDerived, type LoadedResults, type TracePeak } from '@skein/core';
 import { hasLedger, ledgerRows, plotLedger, type LedgerPlotOptions } from './ledger.ts';
 import { hasSpaceTime, plotSpaceTime, type SpaceTimeOptions } from './spaceTime.ts';
 import { plotSpectrum, spectralOf, type SpectrumPlotOptions } from './spectrum.ts';
@@ -39,26 +39,40 @@ export interface ReportPlots {
   spectrum: string | { absent: string };
 }
 
+/** How makePlots treats a malformed results field: raise it, or show it as the plot's absence note. */
+export type MalformedPolicy = 'throw' | 'note';
+
 /**
  * Makes every plot the results allow (the ones set to false are left out with a note).
- * @throws InputError from the plot functions when an option names something absent or a results field is malformed
+ * @param malformed 'throw' (default; what writePlots uses) raises the InputError of a malformed
+ *   results field; 'note' (what renderReport uses) turns it into the plot's absence note, so one bad
+ *   structured output does not cost the whole report
+ * @throws InputError E_REPORT_OPTION when an option names something absent; E_REPORT_RESULTS for a
+ *   malformed results field unless malformed is 'note'
  */
-export function makePlots(results: LoadedResults, options: Omit<ReportOptions, 'title' | 'resultsFile'> = {}): ReportPlots {
+export function makePlots(results: LoadedResults, options: Omit<ReportOptions, 'title' | 'resultsFile'> = {}, malformed: MalformedPolicy = 'throw'): ReportPlots {
   const off = { absent: 'left out by the options' };
+  const guard = (what: string, f: () => string | { absent: string }): string | { absent: string } => {
+    try {
+      return f();
+    } catch (e) {
+      if (malformed === 'note' && e instanceof InputError && e.code === 'E_REPORT_RESULTS') return { absent: `the ${what} data in the results is malformed: ${e.message}` };
+      throw e;
+    }
+  };
   return {
     traces: options.traces === false ? off
       : (options.traces?.traces ?? defaultTraceNames(results)).length > 0 ? plotTraces(results, options.traces || {})
       : { absent: 'the results hold no probe traces' },
     spaceTime: options.spaceTime === false ? off
-      : options.spaceTime && (options.spaceTime.output || options.spaceTime.path) ? plotSpaceTime(results, options.spaceTime)
-      : hasSpaceTime(results) ? plotSpaceTime(results, options.spaceTime || {})
-      : { absent: 'the results hold no space-time output and no line-point probes at two or more positions' },
+      : guard('space-time', () => (options.spaceTime && (options.spaceTime.output || options.spaceTime.path)) || hasSpaceTime(results)
+        ? plotSpaceTime(results, options.spaceTime || {})
+        : { absent: 'the results hold no space-time output and no line-point probes at two or more positions' }),
     ledger: options.ledger === false ? off
       : hasLedger(results) || options.ledger?.probe ? plotLedger(results, options.ledger || {})
       : { absent: 'the scenario has no energy-ledger probe' },
     spectrum: options.spectrum === false ? off
-      : spectralOf(results) ? plotSpectrum(results, options.spectrum || {})
-      : { absent: 'the results hold no frequency-domain part' },
+      : guard('spectral', () => spectralOf(results) ? plotSpectrum(results, options.spectrum || {}) : { absent: 'the results hold no frequency-domain part' }),
   };
 }
 
@@ -113,14 +127,14 @@ function figure(id: string, caption: string, plot: string | { absent: string }):
  * @param results decoded results
  * @param options which plots and their options
  * @returns HTML text
- * @throws InputError from the plots (see makePlots)
+ * @throws InputError E_REPORT_OPTION for a bad option (a malformed results field becomes the plot's note)
  * @example renderReport(readResults('run.msgpack')).startsWith('<!DOCTYPE html>') // true
  */
 export function renderReport(results: LoadedResults, options: ReportOptions = {}): string {
   const doc = results.doc;
   const net = networkOf(results);
   const lines = (doc.derived?.lines ?? []) as LineDerived[];
-  const plots = makePlots(results, options);
+  const plots = makePlots(results, options, 'note');
   const title = options.title ?? `skein report: ${doc.scenario.title}`;
   const endS = results.time.length > 0 ? results.time[results.time.length - 1] : 0;
   const out: string[] = [];

@@ -72,13 +72,15 @@ function numberList(v: unknown, path: Array<string | number>): Float64Array {
 }
 
 /**
- * Whether the results hold anything plotSpaceTime can map (a space-time output, or line-point
- * probes at two or more positions with voltage traces).
+ * Whether the results hold anything plotSpaceTime can map (a space-time output, even a malformed
+ * one, or line-point probes at two or more positions with voltage traces).
  * @example hasSpaceTime(results) // true
  */
 export function hasSpaceTime(results: LoadedResults): boolean {
+  // A space-time output counts even when malformed, so that plotting it reports the fault.
+  if (Object.values((results.doc.outputs ?? {}) as Record<string, unknown>).some(isSpaceTimeOutput)) return true;
   try {
-    spaceTimeData(results);
+    fromPoints(results, {});
     return true;
   } catch {
     return false;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { renderReport, SAFETY_CAUTION } from '../index.ts';
+import { makePlots, renderReport, SAFETY_CAUTION } from '../index.ts';
 import { makeResults } from './fixtures.ts';
 
 describe('renderReport', () => {
@@ -51,5 +51,16 @@ describe('renderReport', () => {
     const h = renderReport(makeResults(), { spaceTime: false, spectrum: false });
     expect(h).toContain('<tr><td>line-point</td><td>pf0, pf1, pf2, pf3, pf4, pf5, pb0, pb1, pb2, pb3, pb4</td></tr>');
     expect(h).toContain('<tr><td>energy-ledger</td><td>energy</td></tr>');
+  });
+});
+
+describe('makePlots', () => {
+  it('raises a malformed results field by default and turns it into a note for the report', () => {
+    const r = makeResults();
+    r.doc.outputs.sweep = { kind: 'space-time', positionsM: [0, 1], values: 'oops' };
+    expect(() => makePlots(r)).toThrow(/outputs\.sweep\.values: must be float64 bytes or a list of rows/);
+    const html = renderReport(r);
+    expect(html).toContain('Not shown: the space-time data in the results is malformed: outputs.sweep.values: must be float64 bytes');
+    expect(html.match(/class="skein-plot"/g)).toHaveLength(3);
   });
 });

@@ -2,7 +2,7 @@ import { existsSync, mkdtempSync, readdirSync, readFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { describe, expect, it } from 'vitest';
-import { encodeResults, SkeinError, writeFileAtomic } from '@skein/core';
+import { encodeResults, InputError, SkeinError, writeFileAtomic } from '@skein/core';
 import { writePlots, writeReport } from '../index.ts';
 import { makeResults } from './fixtures.ts';
 import { parseSvg } from './svgQuery.ts';
@@ -54,5 +54,18 @@ describe('writeReport', () => {
     expect(text).toContain('results feeder-run.msgpack');
     expect(text).toContain('IEC 62305');
     expect(readdirSync(join(dir, 'out'))).toEqual(['report.html']); // no temporary file left
+  });
+});
+
+describe('writePlots', () => {
+  it('refuses results with a malformed structured output, naming its path', () => {
+    const { dir } = resultsFile();
+    const r = makeResults();
+    r.doc.outputs.sweep = { kind: 'space-time', positionsM: [0, 1], values: [[0, 1], [2]], timesS: [0, 1] };
+    let err: unknown;
+    try { writePlots(r, dir); } catch (e) { err = e; }
+    expect((err as InputError).code).toBe('E_REPORT_RESULTS');
+    expect((err as InputError).path).toEqual(['outputs', 'sweep', 'values', 1]);
+    expect(readdirSync(dir).filter((f) => f.endsWith('.svg'))).toEqual([]);
   });
 });
