@@ -21,7 +21,7 @@ export function formatRunSummary(r: RunResult, outPath: string | undefined): str
   lines.push(`${r.title}`);
   lines.push(`  ${r.network.lines.length} lines, ${r.network.junctions.length} junctions, ${nParts} parts, ${r.network.probes.length} probes`);
   lines.push(`  time step ${formatQuantity(r.dtS, 's')}, ${r.nSteps} steps to ${formatQuantity(r.nSteps * r.dtS, 's')}, ${r.nSamples} samples recorded`);
-  const phases = ['sources', 'switches', 'junctions', 'parts', 'probes'].filter((k) => r.timing[k] > 0)
+  const phases = ['sources', 'switches', 'junctions', 'newton', 'parts', 'probes'].filter((k) => r.timing[k] > 0)
     .map((k) => `${k} ${formatQuantity(r.timing[k], 's', 3)}`).join(', ');
   lines.push(`  run time ${formatQuantity(r.timing.loop, 's', 3)} (compile ${formatQuantity(r.timing.compile, 's', 3)}; ${phases})`);
   if (r.peaks.length > 0) {

@@ -30,3 +30,9 @@ export {
   RESULTS_FORMAT, RESULTS_VERSION, ENGINE_VERSION, type ResultsDocument, type LoadedResults,
 } from './results/format.ts';
 export { scenarioSchema } from './scenario/schema.ts';
+export {
+  checkPluginConformance, assertPluginConformance, conformanceFailed, formatConformanceFailures,
+  createFakeSetupContext, createFakeProbeRig, FAKE_CONDUCTORS, FAKE_TRACE_CAPACITY,
+  type ConformanceOptions, type ConformanceCheck, type ConformanceReport, type FakeProbeRig,
+} from './conformance/index.ts';
+export { NEWTON_MAX_ITERATIONS } from './run/newton.ts';

@@ -4,10 +4,10 @@
  * the arrays through precomputed offsets only.
  */
 import { LuDecomposition, Matrix, inverse } from 'ml-matrix';
-import { badInput, bug, PluginError, singularJunction, SkeinError } from '../errors.ts';
+import { badInput, bug, PluginError, singularJunction } from '../errors.ts';
 import { decomposeLine, type ModalLine } from '../line/modal.ts';
 import type { ResolvedJunction, ResolvedPart, ResolvedScenario } from '../model.ts';
-import type { LinearLoadInstance, LoadInstance, SetupContext, WaveformInstance } from '../plugins/api.ts';
+import type { LinearLoadInstance, LoadInstance, NonlinearLoadInstance, SetupContext, WaveformInstance } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
 import { formatQuantity } from '../units.ts';
 
@@ -34,7 +34,7 @@ export interface CompiledPart {
   index: number;
   part: ResolvedPart;
   /** 'norton': voltage drive with series R; 'vsource': ideal voltage drive; 'isource': current drive. */
-  mode: 'norton' | 'vsource' | 'isource' | 'linear' | 'short';
+  mode: 'norton' | 'vsource' | 'isource' | 'linear' | 'short' | 'nonlinear';
   /** Global x index of the plus and minus nodes (-1: reference). */
   xPlus: number;
   xMinus: number;
@@ -54,6 +54,33 @@ export interface CompiledWaveform {
   instance: WaveformInstance;
   slot: number;
   parts: string[];
+}
+
+/** A device of a nonlinear junction, solved by Newton's method each step. */
+export interface NonlinearDevice {
+  part: CompiledPart;
+  instance: NonlinearLoadInstance;
+  /** Junction-local rows of the plus and minus node (-1: reference). */
+  rowPlus: number;
+  rowMinus: number;
+  /** Branch voltage [V] and current [A] of the last converged step. */
+  v: number;
+  i: number;
+}
+
+/** A junction holding nonlinear devices: its linear part and the devices. */
+export interface NonlinearJunction {
+  junction: number;
+  R: number;
+  /** Linear part of the junction matrix (R x R), without devices and time-varying loads. */
+  base: Float64Array;
+  devices: NonlinearDevice[];
+  /** Time-varying linear loads at this junction (stamped each iteration, never inverted). */
+  varying: VaryingJunction['loads'];
+  a: Float64Array;
+  b: Float64Array;
+  rhs0: Float64Array;
+  out: Float64Array;
 }
 
 /** A junction whose matrix changes with time (a switch). */
@@ -127,6 +154,11 @@ export interface Plan {
   historyLoads: CompiledPart[];
   acceptLoads: CompiledPart[];
   varying: VaryingJunction[];
+  nonlinear: NonlinearJunction[];
+  /** Branch current of each nonlinear part at the last converged step [A], by part index. */
+  nlCurrent: Float64Array;
+  /** 1 where the junction is solved by Newton's method (outside the kernels). */
+  jNonlinear: Uint8Array;
   /** Scratch for re-factoring a varying junction. */
   work: Float64Array;
 }
@@ -300,6 +332,8 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   const jA = new Int32Array(nJ);
   const jEx = new Int32Array(nJ + 1);
   const jScalar = new Uint8Array(nJ);
+  const jNonlinear = new Uint8Array(nJ);
+  const nonlinear: NonlinearJunction[] = [];
   const lineEndPort = new Int32Array(scenario.lines.length * 2).fill(-1);
   const lineCondOff = new Int32Array(scenario.lines.length + 1);
   scenario.lines.forEach((l, i) => { lineCondOff[i + 1] = lineCondOff[i] + l.conductors.length; });
@@ -331,9 +365,6 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
         inst = await plugin.create(p.params as never, ctxFor(p.id, dtS));
       } catch (e) {
         throw new PluginError(p.type, 'create', e, { part: p.id });
-      }
-      if (inst.kind === 'nonlinear') {
-        throw new SkeinError('E_NONLINEAR_UNSUPPORTED', `part ${p.id} (load ${p.type}) is nonlinear; this engine version solves linear junctions only`, { part: p.id, plugin: p.type });
       }
       if (inst.kind === 'linear' && !(inst.conductanceS >= 0 && Number.isFinite(inst.conductanceS))) {
         throw new PluginError(p.type, 'create', new Error(`companion conductance must be finite and non-negative, got ${inst.conductanceS}`), { part: p.id });
@@ -449,6 +480,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     let nextConstraint = N;
     const exStart = exRowL.length;
     const varyingLoads: VaryingJunction['loads'] = [];
+    const devices: NonlinearDevice[] = [];
     for (const p of j.parts) {
       const xPlus = p.plus >= 0 ? jX[ji] + p.plus : -1;
       const xMinus = p.minus >= 0 ? jX[ji] + p.minus : -1;
@@ -490,7 +522,10 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       } else {
         const inst = loadInstances.get(p.id)!;
         cp.load = inst;
-        if (inst.kind === 'short') {
+        if (inst.kind === 'nonlinear') {
+          cp.mode = 'nonlinear';
+          devices.push({ part: cp, instance: inst, rowPlus: p.plus, rowMinus: p.minus, v: 0, i: 0 });
+        } else if (inst.kind === 'short') {
           cp.mode = 'short';
           const r = constraintRow();
           cp.xConstraint = jX[ji] + r;
@@ -513,6 +548,14 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     }
     jEx[ji] = exStart;
     jEx[ji + 1] = exRowL.length;
+    if (devices.length > 0) {
+      jNonlinear[ji] = 1;
+      nonlinear.push({
+        junction: ji, R, base: A.slice(), devices, varying: varyingLoads,
+        a: new Float64Array(R * R), b: new Float64Array(R), rhs0: new Float64Array(R), out: new Float64Array(2),
+      });
+      continue;
+    }
     if (varyingLoads.length > 0) {
       varying.push({ junction: ji, base: A.slice(), assembled: new Float64Array(R * R), R, loads: varyingLoads });
       for (const v of varyingLoads) stamp(v.rowPlus, v.rowMinus, v.g);
@@ -521,7 +564,8 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   }
 
   const historyLoads = parts.filter((p) => p.load?.kind === 'linear' && p.load.history !== undefined);
-  const acceptLoads = parts.filter((p) => p.load !== undefined && 'accept' in p.load && p.load.accept !== undefined);
+  // Nonlinear devices are accepted by the Newton phase with their converged values.
+  const acceptLoads = parts.filter((p) => p.load !== undefined && p.load.kind !== 'nonlinear' && 'accept' in p.load && p.load.accept !== undefined);
 
   return {
     scenario, dtS, nSteps, recordEvery, nSamples, modal, delays, warnings,
@@ -533,7 +577,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     mat, wave: new Float64Array(waveLen), rhs: new Float64Array(Math.max(1, maxR)), inc: new Float64Array(nPorts), x: new Float64Array(nX),
     parts,
     waveforms: waveformDefs.map((d, i) => ({ type: d.type, instance: waveformInstances[i], slot: i, parts: d.parts })),
-    historyLoads, acceptLoads, varying,
+    historyLoads, acceptLoads, varying, nonlinear, jNonlinear, nlCurrent: new Float64Array(parts.length),
     work: new Float64Array(Math.max(1, 2 * maxR * maxR)),
   };
 }

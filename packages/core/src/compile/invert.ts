@@ -51,3 +51,48 @@ export function invertInPlace(n: number, a: Float64Array, off: number, out: Floa
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[outOff + i * n + j] = work[i * w + n + j];
   return minPivot;
 }
+
+/**
+ * Solves the n x n system a x = b in place by Gaussian elimination with partial pivoting: `a`
+ * (row-major at offset 0) is destroyed and `b` receives x. No allocation.
+ * @returns the smallest pivot magnitude relative to the largest entry (0 when singular).
+ */
+export function solveInPlace(n: number, a: Float64Array, b: Float64Array): number {
+  let maxAbs = 0;
+  for (let i = 0; i < n * n; i++) if (Math.abs(a[i]) > maxAbs) maxAbs = Math.abs(a[i]);
+  if (maxAbs === 0) return 0;
+  let minPivot = Infinity;
+  for (let c = 0; c < n; c++) {
+    let piv = c;
+    let best = Math.abs(a[c * n + c]);
+    for (let r = c + 1; r < n; r++) {
+      const v = Math.abs(a[r * n + c]);
+      if (v > best) { best = v; piv = r; }
+    }
+    if (best === 0) return 0;
+    if (best / maxAbs < minPivot) minPivot = best / maxAbs;
+    if (piv !== c) {
+      for (let k = 0; k < n; k++) {
+        const t = a[c * n + k];
+        a[c * n + k] = a[piv * n + k];
+        a[piv * n + k] = t;
+      }
+      const t = b[c];
+      b[c] = b[piv];
+      b[piv] = t;
+    }
+    const inv = 1 / a[c * n + c];
+    for (let r = c + 1; r < n; r++) {
+      const f = a[r * n + c] * inv;
+      if (f === 0) continue;
+      for (let k = c; k < n; k++) a[r * n + k] -= f * a[c * n + k];
+      b[r] -= f * b[c];
+    }
+  }
+  for (let r = n - 1; r >= 0; r--) {
+    let acc = b[r];
+    for (let k = r + 1; k < n; k++) acc -= a[r * n + k] * b[k];
+    b[r] = acc / a[r * n + r];
+  }
+  return minPivot;
+}

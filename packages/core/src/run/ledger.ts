@@ -64,7 +64,7 @@ export function accumulateLedger(plan: Plan, led: Ledger, partV: Float64Array, p
     const ib = 0.5 * (partI[p] + led.prevI[p]);
     const ub = 0.5 * (partU[p] + led.prevU[p]);
     const mode = parts[p].mode;
-    if (mode === 'linear' || mode === 'short') {
+    if (mode === 'linear' || mode === 'short' || mode === 'nonlinear') {
       led.absorbedJ[p] += dt * vb * ib;
     } else if (mode === 'isource') {
       led.deliveredJ[p] += dt * vb * ub;

@@ -12,6 +12,7 @@ import type {
 } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
 import { accumulateLedger, createLedger, refreshLedgerView, type Ledger } from './ledger.ts';
+import { acceptNonlinear, phaseNonlinear } from './newton.ts';
 import { kernelRuns, phaseJunctions, phaseParts, phaseSources, phaseSwitches } from './step.ts';
 
 /** Options of a run. */
@@ -268,7 +269,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     record: (trace: TraceHandle, value: number) => { traceData[trace * plan.nSamples + sample] = value; },
   });
 
-  const timing: Record<string, number> = { compile: compileS, sources: 0, switches: 0, junctions: 0, parts: 0, probes: 0 };
+  const timing: Record<string, number> = { compile: compileS, sources: 0, switches: 0, junctions: 0, newton: 0, parts: 0, probes: 0 };
   const progressEvery = Math.max(1, Math.floor(plan.nSteps / 100));
   const tStart = performance.now();
   try {
@@ -287,7 +288,14 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
       phaseJunctions(plan, runs, step);
       t1 = performance.now();
       timing.junctions += t1 - t2;
+      if (plan.nonlinear.length > 0) {
+        phaseNonlinear(plan, step, tS);
+        t2 = performance.now();
+        timing.newton += t2 - t1;
+        t1 = t2;
+      }
       phaseParts(plan, tS, partV, partI, partU);
+      if (plan.nonlinear.length > 0) acceptNonlinear(plan, tS);
       if (ledger) accumulateLedger(plan, ledger, partV, partI, partU);
       t2 = performance.now();
       timing.parts += t2 - t1;

@@ -15,10 +15,12 @@ import { junctionStepScalar } from '../kernel/junctionStepScalar.ts';
 /** Contiguous ranges of junctions that share a kernel: [start, end, scalar] triples. */
 export function kernelRuns(plan: Plan): Int32Array {
   const runs: number[] = [];
+  const kind = (j: number): number => (plan.jNonlinear[j] ? 2 : plan.jScalar[j]);
   let start = 0;
   for (let j = 1; j <= plan.nJunctions; j++) {
-    if (j === plan.nJunctions || plan.jScalar[j] !== plan.jScalar[start]) {
-      runs.push(start, j, plan.jScalar[start]);
+    if (j === plan.nJunctions || kind(j) !== kind(start)) {
+      // Nonlinear junctions are solved by the Newton phase, not by a kernel.
+      if (kind(start) !== 2) runs.push(start, j, plan.jScalar[start]);
       start = j;
     }
   }
@@ -43,6 +45,7 @@ export function phaseSwitches(plan: Plan, tS: number): void {
   for (let k = 0; k < vs.length; k++) {
     const v = vs[k];
     let changed = false;
+    // (Time-varying loads at a nonlinear junction are listed in its Newton record instead.)
     for (let i = 0; i < v.loads.length; i++) {
       const l = v.loads[i];
       const g = l.instance.conductanceAt!(tS);
@@ -106,6 +109,9 @@ export function phaseParts(plan: Plan, tS: number, partV: Float64Array, partI: F
         break;
       case 'short':
         i = x[p.xConstraint];
+        break;
+      case 'nonlinear':
+        i = plan.nlCurrent[k];
         break;
       case 'vsource':
         u = slot[p.slot];

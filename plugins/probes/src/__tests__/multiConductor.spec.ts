@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import type { PointHandle, ProbeInstance } from '@skein/core';
 // The fake solver state of core's conformance suite (two-conductor lines a, b); becomes `from '@skein/core'` once exported there.
-import { createFakeProbeRig } from '../../../../packages/core/src/conformance/index.ts';
+import { createFakeProbeRig } from '@skein/core';
 import { lineEndCurrentProbe, linePointProbe } from '../index.ts';
 
 describe('lineEndCurrentProbe', () => {

@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
-// The suite is core's; this relative import becomes `from '@skein/core'` once core's index.ts exports it.
-import { checkPluginConformance, formatConformanceFailures } from '../../../../packages/core/src/conformance/index.ts';
+import { checkPluginConformance, formatConformanceFailures } from '@skein/core';
 
 // Parameters where the synthesised ones would not do (constraints between parameters, or to
 // exercise the more demanding hooks), as the factories receive them (SI numbers).
