@@ -64,7 +64,7 @@ export function plotTraces(results: LoadedResults, options: TracePlotOptions = {
   });
 
   const legend: LegendItem[] = names.map((name, k) => ({ label: name, ...styleOf(k) }));
-  const panels: Panel[] = units.map((unit, u) => {
+  const panels: Panel[] = units.map((unit) => {
     const series = byUnit.get(unit)!;
     const marks: Plot.Markish[] = [];
     const values: number[] = [];
@@ -83,7 +83,6 @@ export function plotTraces(results: LoadedResults, options: TracePlotOptions = {
     const pad = 0.05 * (yDomain[1] - yDomain[0]);
     const yDom: [number, number] = [yDomain[0] - pad, yDomain[1] + pad];
     if (yDom[0] < 0 && yDom[1] > 0) marks.unshift(Plot.ruleY([0], { stroke: '#9a9a9a', strokeWidth: 0.8 }));
-    const last = u === units.length - 1;
     return {
       heightPx: panelH,
       svg: renderPanel({
@@ -94,7 +93,7 @@ export function plotTraces(results: LoadedResults, options: TracePlotOptions = {
         marginBottom: 44,
         grid: true,
         style: { fontSize: '11px', fontFamily: 'system-ui, sans-serif' },
-        x: { domain: tDomain, label: axisLabel('time', tDomain, 's'), tickFormat: axisTickFormat(tDomain, 's'), labelArrow: 'none', labelAnchor: 'center', ticks: 8, axis: last ? 'bottom' : 'bottom' },
+        x: { domain: tDomain, label: axisLabel('time', tDomain, 's'), tickFormat: axisTickFormat(tDomain, 's'), labelArrow: 'none', labelAnchor: 'center', ticks: 8 },
         y: { domain: yDom, label: axisLabel(quantityOf(unit), yDom, unit), tickFormat: axisTickFormat(yDom, unit), labelArrow: 'none', labelAnchor: 'center', ticks: 6 },
         marks,
       } as Plot.PlotOptions),
