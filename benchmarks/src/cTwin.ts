@@ -26,6 +26,8 @@ const MAGIC = 0x424e4b53;
 export const C_SOURCE = join(dirname(fileURLToPath(import.meta.url)), '..', 'c', 'kernel.c');
 /** Compiler flags, as the benchmark requirement states them. */
 export const C_FLAGS = ['-O3', '-march=native'];
+/** Warnings are errors when building the twin, so a slip in kernel.c cannot pass silently. */
+const C_CHECKS = ['-Wall', '-Wextra', '-Werror'];
 
 /** Result of one run of a kernel (either language). */
 export interface KernelRun {
@@ -55,7 +57,7 @@ export function buildCTwin(): string {
   const bin = join(dir, 'kernel');
   if (existsSync(bin)) return bin;
   mkdirSync(dir, { recursive: true });
-  const r = spawnSync('gcc', [...C_FLAGS, '-o', bin, C_SOURCE], { encoding: 'utf8' });
+  const r = spawnSync('gcc', [...C_FLAGS, ...C_CHECKS, '-o', bin, C_SOURCE], { encoding: 'utf8' });
   if (r.error) throw new Error(`benchmarks: cannot run gcc (${r.error.message}); install a C compiler (Debian: apt-get install build-essential)`);
   if (r.status !== 0) throw new Error(`benchmarks: gcc failed on ${C_SOURCE}:\n${r.stderr}`);
   return bin;
@@ -85,14 +87,15 @@ export function writeCase(path: string, net: KernelNet, kind: 0 | 1): void {
 }
 
 /**
- * Runs the C twin on a case file written by writeCase: nWarm warm-up steps, state zeroed, nSteps
- * timed steps with nB steps per junction visit (1: reference loop). Reads back the final state.
+ * Runs the C twin on a case file written by writeCase: nWarm warm-up steps, then reps times (state
+ * zeroed, nSteps timed steps; the shortest time is reported) with nB steps per junction visit (1: reference loop); `fast` runs the one-node (one
+ * conductor) or four-node (four conductors) fast path instead. Reads back the final state.
  * @param net the network the case file holds (for the array lengths).
  * @throws Error with the twin's message when it fails.
  */
-export function runCTwin(bin: string, casePath: string, net: KernelNet, nSteps: number, nB: number, nWarm: number): KernelRun {
+export function runCTwin(bin: string, casePath: string, net: KernelNet, nSteps: number, nB: number, nWarm: number, fast = false, reps = 1): KernelRun {
   const outPath = `${casePath}.out`;
-  execFileSync(bin, ['run', casePath, outPath, String(nSteps), String(nB), String(nWarm)], { stdio: ['ignore', 'ignore', 'pipe'] });
+  execFileSync(bin, ['run', casePath, outPath, String(nSteps), String(nB), String(nWarm), fast ? '1' : '0', String(reps)], { stdio: ['ignore', 'ignore', 'pipe'] });
   const expected = 2 + net.wave.length + net.x.length;
   const size = statSync(outPath).size;
   if (size !== expected * 8) throw new Error(`benchmarks: C twin wrote ${size} bytes, expected ${expected * 8}`);

@@ -11,7 +11,7 @@
  */
 import { execSync } from 'node:child_process';
 import { mkdirSync, mkdtempSync, rmSync, writeFileSync } from 'node:fs';
-import { cpus, tmpdir } from 'node:os';
+import { cpus, loadavg, tmpdir } from 'node:os';
 import { dirname, join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { buildCTwin, cStream, gccVersion, runCTwin, writeCase, type Bandwidth, type KernelRun } from './cTwin.ts';
@@ -50,23 +50,30 @@ export interface CaseResult extends BenchCase {
   blockSteps: number;
   waveMiB: number;
   usefulBytesPerLineEndUpdate: number;
+  /** Reference loop (junctionStepScalar / junctionStep), one step per visit. */
   ts: VariantResult;
+  /** Temporally blocked loop (junctionStepScalarBlocked / junctionStepBlocked), blockSteps per visit. */
   tsBlocked: VariantResult;
+  /** Blocked fast path with locals (junctionStepOneNodeBlocked / junctionStepFourNodeBlocked). */
+  tsFast: VariantResult;
   c?: VariantResult;
   cBlocked?: VariantResult;
-  /** C time / TS time (TS speed as a fraction of C), reference and blocked loops. */
+  cFast?: VariantResult;
+  /** C time / TS time (TS speed as a fraction of C's) for each loop. */
   ratio?: number;
   ratioBlocked?: number;
+  ratioFast?: number;
   /** Worst relative deviation of the C twin's final wave and x from the TypeScript reference. */
   cDeviation?: number;
-  /** TS blocked final state equals the TS reference bit for bit. */
+  /** TS blocked and fast final states equal the TS reference bit for bit. */
   blockedBitIdentical: boolean;
 }
 
 /** Everything one run of the benchmark measured. */
 export interface BenchResults {
   date: string;
-  machine: { nproc: number; cpuModel: string; node: string; gcc: string | null };
+  machine: { nproc: number; cpuModel: string; node: string; gcc: string | null; loadAverage: number[] };
+  reps: number;
   bandwidth: { c: Bandwidth | null; ts: Bandwidth };
   tolerance: { relative: number; floorOfMaxAbs: number };
   cases: CaseResult[];
@@ -80,8 +87,10 @@ export interface BenchOptions {
   out?: string;
   /** Progress lines (default: to stderr). */
   log?: (line: string) => void;
-  /** Target seconds of the TypeScript reference run of each case. Default 0.6 (quick: 0.05). */
+  /** Target seconds of the TypeScript reference run of each case. Default 0.25 (quick: 0.05). */
   targetSeconds?: number;
+  /** Timed repetitions of each run; the shortest counts (the machine may be shared). Default 3 (quick: 1). */
+  reps?: number;
 }
 
 /** Relative tolerance of the C vs TypeScript comparison; see compareArrays for the floor. */
@@ -145,7 +154,8 @@ function fmt(x: number | undefined, digits = 2): string {
 export async function runBenchmark(options: BenchOptions = {}): Promise<BenchResults> {
   const log = options.log ?? ((l: string) => process.stderr.write(`${l}\n`));
   const quick = options.quick ?? false;
-  const target = options.targetSeconds ?? (quick ? 0.05 : 0.6);
+  const target = options.targetSeconds ?? (quick ? 0.05 : 0.25);
+  const reps = options.reps ?? (quick ? 1 : 3);
   const gcc = gccVersion() ?? null;
   const bin = gcc ? buildCTwin() : undefined;
   if (!gcc) log('gcc not found on PATH: the C twin is skipped and no ratio is reported (Debian: apt-get install build-essential)');
@@ -190,19 +200,31 @@ export async function runBenchmark(options: BenchOptions = {}): Promise<BenchRes
       const warm = Math.max(nB, Math.ceil(steps / 10 / nB) * nB);
       log(`${tag}: built in ${((performance.now() - t0) / 1e3).toFixed(1)} s, ${steps} steps`);
 
-      const ref = runTs(net, kind, steps, 1, warm);
-      const blk = runTs(net, kind, steps, nB, warm);
-      let identical = ref.wave.length === blk.wave.length;
-      for (let i = 0; identical && i < ref.wave.length; i++) if (!Object.is(ref.wave[i], blk.wave[i])) identical = false;
-      for (let i = 0; identical && i < ref.x.length; i++) if (!Object.is(ref.x[i], blk.x[i])) identical = false;
+      const ref = runTs(net, kind, steps, 1, warm, false, reps);
+      const same = (o: KernelRun): boolean => {
+        let ok = ref.wave.length === o.wave.length;
+        for (let i = 0; ok && i < ref.wave.length; i++) if (!Object.is(ref.wave[i], o.wave[i])) ok = false;
+        for (let i = 0; ok && i < ref.x.length; i++) if (!Object.is(ref.x[i], o.x[i])) ok = false;
+        return ok;
+      };
+      const blk = runTs(net, kind, steps, nB, warm, false, reps);
+      let identical = same(blk);
       if (!identical) failures.push(`${tag}: blocked TypeScript kernel differs from the reference`);
       const blkRes = variant(blk.seconds, steps, net, useful, triad, blk.checksum);
       blk.wave = new Float64Array(0);
+      const fst = runTs(net, kind, steps, nB, warm, true, reps);
+      if (!same(fst)) {
+        identical = false;
+        failures.push(`${tag}: fast TypeScript kernel differs from the reference`);
+      }
+      const fstRes = variant(fst.seconds, steps, net, useful, triad, fst.checksum);
+      fst.wave = new Float64Array(0);
       const r: CaseResult = {
         ...bc, nLines: net.nLines, lineEnds, modalPorts: net.nPorts, kMin: net.kMin, kMax: net.kMax, steps, blockSteps: nB,
         waveMiB: (net.wave.length * 8) / 2 ** 20, usefulBytesPerLineEndUpdate: useful / lineEnds,
         ts: variant(ref.seconds, steps, net, useful, triad, ref.checksum),
         tsBlocked: blkRes,
+        tsFast: fstRes,
         blockedBitIdentical: identical,
       };
       if (bin) {
@@ -219,19 +241,23 @@ export async function runBenchmark(options: BenchOptions = {}): Promise<BenchRes
             if (!(d.relative <= TOLERANCE)) failures.push(`${tag}: C ${what} ${name}[${d.index}] = ${d.got}, TypeScript ${d.expected}, relative error ${d.relative.toExponential(2)} > ${TOLERANCE}`);
           }
         };
-        const c1 = runCTwin(bin, casePath, net, steps, 1, warm);
+        const c1 = runCTwin(bin, casePath, net, steps, 1, warm, false, reps);
         check(c1, 'reference');
         r.c = variant(c1.seconds, steps, net, useful, triad, c1.checksum);
-        const c2 = runCTwin(bin, casePath, net, steps, nB, warm);
+        const c2 = runCTwin(bin, casePath, net, steps, nB, warm, false, reps);
         check(c2, 'blocked');
         r.cBlocked = variant(c2.seconds, steps, net, useful, triad, c2.checksum);
+        const c3 = runCTwin(bin, casePath, net, steps, nB, warm, true, reps);
+        check(c3, 'fast');
+        r.cFast = variant(c3.seconds, steps, net, useful, triad, c3.checksum);
         rmSync(casePath, { force: true });
         r.ratio = r.c.seconds / r.ts.seconds;
         r.ratioBlocked = r.cBlocked.seconds / r.tsBlocked.seconds;
+        r.ratioFast = r.cFast.seconds / r.tsFast.seconds;
         r.cDeviation = worst;
       }
       results.push(r);
-      log(`${tag}: line-end updates/s TS ${fmt(r.ts.lineEndUpdatesPerS / 1e6)}M, C ${fmt((r.c?.lineEndUpdatesPerS ?? NaN) / 1e6)}M (ratio ${fmt(r.ratio)}); blocked TS ${fmt(r.tsBlocked.lineEndUpdatesPerS / 1e6)}M, C ${fmt((r.cBlocked?.lineEndUpdatesPerS ?? NaN) / 1e6)}M (ratio ${fmt(r.ratioBlocked)})`);
+      log(`${tag}: line-end updates/s TS ${fmt(r.ts.lineEndUpdatesPerS / 1e6)}M, C ${fmt((r.c?.lineEndUpdatesPerS ?? NaN) / 1e6)}M (ratio ${fmt(r.ratio)}); blocked TS ${fmt(r.tsBlocked.lineEndUpdatesPerS / 1e6)}M, C ${fmt((r.cBlocked?.lineEndUpdatesPerS ?? NaN) / 1e6)}M (ratio ${fmt(r.ratioBlocked)}); fast TS ${fmt(r.tsFast.lineEndUpdatesPerS / 1e6)}M, C ${fmt((r.cFast?.lineEndUpdatesPerS ?? NaN) / 1e6)}M (ratio ${fmt(r.ratioFast)})`);
     }
   } finally {
     rmSync(work, { recursive: true, force: true });
@@ -239,7 +265,8 @@ export async function runBenchmark(options: BenchOptions = {}): Promise<BenchRes
 
   const out: BenchResults = {
     date: new Date().toISOString(),
-    machine: { nproc: cpus().length, cpuModel, node: process.version, gcc },
+    machine: { nproc: cpus().length, cpuModel, node: process.version, gcc, loadAverage: loadavg() },
+    reps,
     bandwidth: { c: cBw, ts: tsBw },
     tolerance: { relative: TOLERANCE, floorOfMaxAbs: FLOOR_OF_MAX },
     cases: results,
@@ -255,13 +282,14 @@ export async function runBenchmark(options: BenchOptions = {}): Promise<BenchRes
 
 /** The results as a plain-text table (one row per case). */
 export function formatTable(r: BenchResults): string {
-  const head = ['junctions', 'n', 'topology', 'numbering', 'delays', 'steps', 'TS M/s', 'C M/s', 'TS/C', 'TS blk', 'C blk', 'TS/C blk', 'blk gain TS', 'blk gain C', 'BW TS', 'BW C', 'BW TS blk', 'BW C blk'];
+  const head = ['junctions', 'n', 'topology', 'numbering', 'delays', 'steps', 'TS', 'C', 'TS/C', 'TS blk', 'C blk', 'TS/C blk', 'TS fast', 'C fast', 'TS/C fast', 'blk gain TS', 'blk gain C', 'BW TS', 'BW C', 'BW TS fast', 'BW C fast'];
   const rows = r.cases.map((c) => [
     String(c.nJunctions), String(c.conductors), c.topology, c.numbering, `${c.delayMin}..${c.delayMax}`, String(c.steps),
     fmt(c.ts.lineEndUpdatesPerS / 1e6), fmt(c.c && c.c.lineEndUpdatesPerS / 1e6), fmt(c.ratio),
     fmt(c.tsBlocked.lineEndUpdatesPerS / 1e6), fmt(c.cBlocked && c.cBlocked.lineEndUpdatesPerS / 1e6), fmt(c.ratioBlocked),
+    fmt(c.tsFast.lineEndUpdatesPerS / 1e6), fmt(c.cFast && c.cFast.lineEndUpdatesPerS / 1e6), fmt(c.ratioFast),
     fmt(c.ts.seconds / c.tsBlocked.seconds), fmt(c.c && c.cBlocked && c.c.seconds / c.cBlocked.seconds),
-    fmt(c.ts.bandwidthFraction, 1), fmt(c.c?.bandwidthFraction, 1), fmt(c.tsBlocked.bandwidthFraction, 1), fmt(c.cBlocked?.bandwidthFraction, 1),
+    fmt(c.ts.bandwidthFraction, 1), fmt(c.c?.bandwidthFraction, 1), fmt(c.tsFast.bandwidthFraction, 1), fmt(c.cFast?.bandwidthFraction, 1),
   ]);
   const w = head.map((h, i) => Math.max(h.length, ...rows.map((row) => row[i].length)));
   const line = (cells: string[]): string => `| ${cells.map((c, i) => c.padStart(w[i])).join(' | ')} |`;
@@ -281,7 +309,7 @@ async function main(): Promise<void> {
   }
   const r = await runBenchmark({ quick, out });
   process.stdout.write(`${formatTable(r)}\n`);
-  process.stdout.write(`memory bandwidth (triad): C ${fmt((r.bandwidth.c?.triadBytesPerS ?? NaN) / 1e9)} GB/s, TS ${fmt(r.bandwidth.ts.triadBytesPerS / 1e9)} GB/s; M/s = 10^6 line-end updates per second; BW = useful bytes/s over the C triad bandwidth\n`);
+  process.stdout.write(`memory bandwidth (triad): C ${fmt((r.bandwidth.c?.triadBytesPerS ?? NaN) / 1e9)} GB/s, TS ${fmt(r.bandwidth.ts.triadBytesPerS / 1e9)} GB/s; TS, C = 10^6 line-end updates per second; blk = temporally blocked; fast = blocked with locals; BW = useful bytes/s over the C triad bandwidth\n`);
   if (r.failures.length > 0) {
     process.stderr.write(`${r.failures.join('\n')}\n`);
     process.exit(1);

@@ -19,8 +19,8 @@ function twin(): string {
 
 describe('runCTwin', () => {
   for (const conductors of [1, 4] as const) {
-    for (const nB of [1, 5]) {
-      it(`matches the TypeScript ${nB === 1 ? 'reference' : 'blocked'} kernel to 1e-12 on a ${conductors}-conductor mesh`, () => {
+    for (const [nB, fast, name] of [[1, false, 'reference'], [5, false, 'blocked'], [5, true, 'fast blocked']] as const) {
+      it(`matches the TypeScript ${name} kernel to 1e-12 on a ${conductors}-conductor mesh`, () => {
         // Same loops, same order; gcc may fuse a*b+c (FMA), which changes the last bit of a term.
         // Errors stay at rounding size over 400 steps of a passive network, so 1e-12 relative
         // (floor 1e-3 max|value| for near-zero elements) leaves ample room and still catches any
@@ -28,10 +28,10 @@ describe('runCTwin', () => {
         const bin = twin();
         const net = generateKernelNet({ nJunctions: 400, topology: 'mesh', conductors, numbering: 'random', seed: 11, delayMax: 30 }, 5);
         const kind = conductors === 1 ? 0 : 1;
-        const ts = runTs(net, kind, 400, nB, 20);
+        const ts = runTs(net, kind, 400, nB, 20, fast);
         const path = join(dir, `case${conductors}.bin`);
         writeCase(path, net, kind);
-        const c = runCTwin(bin, path, net, 400, nB, 20);
+        const c = runCTwin(bin, path, net, 400, nB, 20, fast, 2);
         expect(maxAbs(ts.x)).toBeGreaterThan(0.01);
         const dw = compareArrays(c.wave, ts.wave, 1e-3 * maxAbs(ts.wave));
         const dx = compareArrays(c.x, ts.x, 1e-3 * maxAbs(ts.x));

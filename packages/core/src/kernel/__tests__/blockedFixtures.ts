@@ -97,3 +97,33 @@ export async function compileWide(text: string, maxBlock: number): Promise<Block
   const kMin = Math.min(...plan.delays.map((d) => d.k));
   return { plan, kMin };
 }
+
+const L4 = '[[400nH/m, 80nH/m, 40nH/m, 20nH/m], [80nH/m, 390nH/m, 70nH/m, 35nH/m], [40nH/m, 70nH/m, 410nH/m, 60nH/m], [20nH/m, 35nH/m, 60nH/m, 380nH/m]]';
+const C4 = '[[90pF/m, -15pF/m, -5pF/m, -2pF/m], [-15pF/m, 95pF/m, -12pF/m, -4pF/m], [-5pF/m, -12pF/m, 88pF/m, -10pF/m], [-2pF/m, -4pF/m, -10pF/m, 92pF/m]]';
+
+/** Four-conductor lines: every junction has four nodes and no constraint row (the four-node fast path). */
+export const fourScenario = `
+skein: 1
+time: { end: 400ns, step: 1ns }
+lines:
+  a: { from: S, to: H, length: 1.5m, conductors: [p, q, r, s], inductance: ${L4}, capacitance: ${C4} }
+  b: { from: H, to: P, length: 1.9m, conductors: [p, q, r, s], inductance: ${L4}, capacitance: ${C4} }
+  c: { from: H, to: Q, length: 2.3m, conductors: [p, q, r, s], inductance: ${L4}, capacitance: ${C4} }
+junctions:
+  S:
+    nodes: { sp: [a.p], sq: [a.q], sr: [a.r], ss: [a.s] }
+    parts:
+      g: { source: test-step, between: [sp, ref], amplitude: 1, delay: 4ns, resistance: 25ohm }
+      g2: { source: test-step, between: [sr, ss], amplitude: 1, delay: 4ns, resistance: 40ohm }
+      rq: { load: test-resistor, between: [sq, ref], resistance: 100ohm }
+  H: { nodes: { hp: [a.p, b.p, c.p], hq: [a.q, b.q, c.q], hr: [a.r, b.r, c.r], hs: [a.s, b.s, c.s] } }
+  P:
+    nodes: { pp: [b.p], pq: [b.q], pr: [b.r], ps: [b.s] }
+    parts:
+      r1: { load: test-resistor, between: [pp, ref], resistance: 60ohm }
+      r2: { load: test-resistor, between: [pq, pr], resistance: 150ohm }
+  Q:
+    nodes: { qp: [c.p], qq: [c.q], qr: [c.r], qs: [c.s] }
+    parts:
+      r3: { load: test-resistor, between: [qs, ref], resistance: 47ohm }
+`;
