@@ -1,0 +1,1 @@
+export { solveSpectrum, solveNetworkSpectrum, spectrumSweep, parseOutputSpec, parsePortSpec, outputName } from './spectrum.ts';

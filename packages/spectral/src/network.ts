@@ -1,0 +1,304 @@
+/**
+ * The network in the frequency domain: global node numbering over all junctions, plugin instances,
+ * and the modified nodal system (MNA) at one angular frequency.
+ *
+ * Unknowns: every junction node voltage (global numbering: junction by junction, nodes in their
+ * order), then one branch current per ideal voltage drive and per short. Line blocks are stamped
+ * between their end nodes, loads by their `admittance` hook, a voltage drive with series R as its
+ * Norton equivalent, an ideal voltage drive (R = 0) and a short as a constraint row, a current
+ * drive as an injection with its parallel conductance (modified nodal analysis: Ho, Ruehli &
+ * Brennan, IEEE Trans. CAS 22(6), 1975, from memory).
+ */
+import {
+  badInput, SkeinError, PluginError,
+  type LoadInstance, type PluginRegistry, type ResolvedLine, type ResolvedPart, type ResolvedScenario, type SetupContext, type WaveformInstance,
+} from '@skein/core';
+import { cFrom, cLu, cLuSolve, cZeros, type CLu, type CMatrix } from './complex.ts';
+import { lineBlock, type LineBlock } from './lineBlock.ts';
+
+/** A line of the network with its end nodes (global indices, per conductor). */
+interface NetLine {
+  line: ResolvedLine;
+  n: number;
+  nodes0: Int32Array;
+  nodes1: Int32Array;
+}
+
+/** A part of the network with its terminals (global node indices, -1 = reference). */
+export interface NetPart {
+  part: ResolvedPart;
+  plus: number;
+  minus: number;
+  /** Loads: the instance. */
+  load?: LoadInstance;
+  /** Sources: index into `waveforms`. */
+  waveform?: number;
+  /** Row of its branch current in the MNA system (ideal voltage drives and shorts), else -1. */
+  row: number;
+}
+
+/** A compiled frequency-domain network. */
+export interface SpectralNetwork {
+  scenario: ResolvedScenario;
+  /** Number of junction nodes (global). */
+  nNodes: number;
+  /** Size of the MNA system (nodes + constraint rows). */
+  size: number;
+  /** Global index of the first node of each junction. */
+  nodeOffset: Int32Array;
+  lines: NetLine[];
+  parts: NetPart[];
+  waveforms: WaveformInstance[];
+  /** "junction.node" of each global node. */
+  nodeNames: string[];
+}
+
+/** Per-source excitation of one solve: phasor [re, im] of each source part, or null to remove it. */
+export type SourceState = Array<{ re: number; im: number } | null>;
+
+/** The system at one frequency: factors and line blocks. */
+export interface Assembled {
+  omegaRadS: number;
+  lu: CLu;
+  blocks: LineBlock[];
+  /** Load admittances [S], per part (NaN for sources and shorts). */
+  partYRe: Float64Array;
+  partYIm: Float64Array;
+}
+
+/**
+ * Compiles a resolved scenario for spectral runs: creates the waveform and load instances and checks
+ * that every linear or nonlinear load has the `admittance` hook.
+ * @param scenario from resolveScenarioText; @param registry the plugins the scenario names.
+ * @throws SkeinError E_SPECTRAL_HOOK_MISSING (details: plugin, hook, part) for a load without
+ *   `admittance`; PluginError when a plugin's create fails.
+ * @example const net = await compileNetwork(resolveScenarioText(text, { registry }), registry)
+ */
+export async function compileNetwork(scenario: ResolvedScenario, registry: PluginRegistry): Promise<SpectralNetwork> {
+  const nodeOffset = new Int32Array(scenario.junctions.length + 1);
+  const nodeNames: string[] = [];
+  scenario.junctions.forEach((j, i) => {
+    nodeOffset[i + 1] = nodeOffset[i] + j.nodes.length;
+    for (const nd of j.nodes) nodeNames.push(`${j.id}.${nd}`);
+  });
+  const nNodes = nodeOffset[scenario.junctions.length];
+  const lines: NetLine[] = scenario.lines.map((line) => {
+    const n = line.conductors.length;
+    return { line, n, nodes0: new Int32Array(n).fill(-1), nodes1: new Int32Array(n).fill(-1) };
+  });
+  scenario.junctions.forEach((j, ji) => {
+    for (const p of j.ports) (p.end === 0 ? lines[p.line].nodes0 : lines[p.line].nodes1)[p.conductor] = nodeOffset[ji] + p.node;
+  });
+  for (const l of lines) {
+    if ([...l.nodes0, ...l.nodes1].some((x) => x < 0)) throw new SkeinError('E_BUG', `bug: line ${l.line.id} has an unwired conductor after resolution`);
+  }
+  const dtS = scenario.time.stepS ?? scenario.time.endS / 1e4;
+  const ctxFor = (id: string): SetupContext => ({ dtS, endS: scenario.time.endS, id, warn: () => undefined });
+  const waveforms: WaveformInstance[] = [];
+  const waveformKeys = new Map<string, number>();
+  const parts: NetPart[] = [];
+  let size = nNodes;
+  for (const [ji, j] of scenario.junctions.entries()) {
+    for (const p of j.parts) {
+      const plus = p.plus < 0 ? -1 : nodeOffset[ji] + p.plus;
+      const minus = p.minus < 0 ? -1 : nodeOffset[ji] + p.minus;
+      if (p.role === 'source') {
+        const key = `${p.type}:${JSON.stringify(p.params)}`;
+        let w = waveformKeys.get(key);
+        if (w === undefined) {
+          const plugin = registry.sources.get(p.type)?.plugin;
+          if (!plugin) throw new SkeinError('E_BUG', `bug: source type ${p.type} passed resolution but is not registered`);
+          let inst: WaveformInstance;
+          try {
+            inst = await plugin.create(p.params as never, ctxFor(p.id));
+          } catch (e) {
+            throw new PluginError(p.type, 'create', e, { part: p.id });
+          }
+          w = waveforms.length;
+          waveforms.push(inst);
+          waveformKeys.set(key, w);
+        }
+        const row = p.drive === 'voltage' && p.resistanceOhm === 0 ? size++ : -1;
+        parts.push({ part: p, plus, minus, waveform: w, row });
+      } else {
+        const plugin = registry.loads.get(p.type)?.plugin;
+        if (!plugin) throw new SkeinError('E_BUG', `bug: load type ${p.type} passed resolution but is not registered`);
+        let inst: LoadInstance;
+        try {
+          inst = await plugin.create(p.params as never, ctxFor(p.id));
+        } catch (e) {
+          throw new PluginError(p.type, 'create', e, { part: p.id });
+        }
+        if (inst.kind !== 'short' && typeof inst.admittance !== 'function') {
+          throw new SkeinError(
+            'E_SPECTRAL_HOOK_MISSING',
+            `part ${p.id}: load plugin ${p.type} has no frequency-domain hook "admittance"; a spectral run needs admittance(omegaRadS, out) on every load`,
+            { plugin: p.type, hook: 'admittance', part: p.id },
+          );
+        }
+        parts.push({ part: p, plus, minus, load: inst, row: inst.kind === 'short' ? size++ : -1 });
+      }
+    }
+  }
+  return { scenario, nNodes, size, nodeOffset, lines, parts, waveforms, nodeNames };
+}
+
+/**
+ * The global index of a node named "junction.node".
+ * @param path where the name came from (for the error).
+ * @throws InputError E_SPECTRAL_NODE naming the accepted nodes.
+ * @example nodeIndex(net, 'L.l') // 1
+ */
+export function nodeIndex(net: SpectralNetwork, name: string, path: ReadonlyArray<string | number> = ['node']): number {
+  const i = net.nodeNames.indexOf(name);
+  if (i < 0) {
+    const list = net.nodeNames.length > 12 ? `${net.nodeNames.slice(0, 12).join(', ')}, ...` : net.nodeNames.join(', ');
+    throw badInput(path, `must name a node as junction.node (${list})`, name, 'E_SPECTRAL_NODE');
+  }
+  return i;
+}
+
+/** Z and Y per metre of a line at omega: constant R, L, G, C or the section's zyAt. */
+function lineZY(l: ResolvedLine, omega: number): { z: CMatrix; y: CMatrix } {
+  const n = l.conductors.length;
+  if (l.section) {
+    const zy = l.section.zyAt(omega / (2 * Math.PI));
+    return { z: cFrom(n, n, zy.Zre, zy.Zim), y: cFrom(n, n, zy.Yre, zy.Yim) };
+  }
+  const z = cZeros(n);
+  const y = cZeros(n);
+  for (let i = 0; i < n * n; i++) {
+    z.re[i] = l.R[i];
+    z.im[i] = omega * l.L[i];
+    y.re[i] = l.G[i];
+    y.im[i] = omega * l.C[i];
+  }
+  return { z, y };
+}
+
+function add(m: CMatrix, i: number, j: number, re: number, im: number): void {
+  if (i < 0 || j < 0) return;
+  m.re[i * m.cols + j] += re;
+  m.im[i * m.cols + j] += im;
+}
+
+/** Stamps an admittance y between nodes p and q (-1 = reference). */
+export function stampAdmittance(m: CMatrix, p: number, q: number, re: number, im: number): void {
+  add(m, p, p, re, im);
+  add(m, q, q, re, im);
+  add(m, p, q, -re, -im);
+  add(m, q, p, -re, -im);
+}
+
+/**
+ * Assembles and factors the MNA matrix at omega. Sources listed as null in `removed` are taken out;
+ * all others keep their internal resistance (their EMF enters only the right-hand side).
+ * `extraShunts` adds admittances from nodes to the reference (port terminations).
+ * @throws NumericalError-like SkeinError E_SPECTRAL_SINGULAR naming the frequency.
+ */
+export function assemble(net: SpectralNetwork, omegaRadS: number, removed: readonly boolean[], extraShunts: ReadonlyArray<{ node: number; re: number; im: number }> = []): Assembled {
+  const a = cZeros(net.size);
+  const blocks: LineBlock[] = [];
+  for (const l of net.lines) {
+    const { z, y } = lineZY(l.line, omegaRadS);
+    const b = lineBlock(z, y, l.line.lengthM);
+    blocks.push(b);
+    const n = l.n;
+    for (let i = 0; i < n; i++) {
+      for (let j = 0; j < n; j++) {
+        const r11 = b.y11.re[i * n + j], i11 = b.y11.im[i * n + j];
+        const r12 = b.y12.re[i * n + j], i12 = b.y12.im[i * n + j];
+        add(a, l.nodes0[i], l.nodes0[j], r11, i11);
+        add(a, l.nodes1[i], l.nodes1[j], r11, i11);
+        add(a, l.nodes0[i], l.nodes1[j], r12, i12);
+        add(a, l.nodes1[i], l.nodes0[j], r12, i12);
+      }
+    }
+  }
+  const partYRe = new Float64Array(net.parts.length).fill(NaN);
+  const partYIm = new Float64Array(net.parts.length).fill(NaN);
+  const out = new Float64Array(2);
+  net.parts.forEach((np, k) => {
+    if (removed[k]) return;
+    const p = np.part;
+    if (np.row >= 0) {
+      add(a, np.plus, np.row, 1, 0);
+      add(a, np.minus, np.row, -1, 0);
+      add(a, np.row, np.plus, 1, 0);
+      add(a, np.row, np.minus, -1, 0);
+      return;
+    }
+    if (np.load) {
+      out[0] = NaN;
+      out[1] = NaN;
+      try {
+        (np.load as { admittance(w: number, o: Float64Array): void }).admittance(omegaRadS, out);
+      } catch (e) {
+        throw new PluginError(p.type, 'admittance', e, { part: p.id });
+      }
+      if (!Number.isFinite(out[0]) || !Number.isFinite(out[1])) {
+        throw new PluginError(p.type, 'admittance', new Error(`admittance at omega = ${omegaRadS} rad/s must be finite, got ${out[0]} + j${out[1]}`), { part: p.id });
+      }
+      partYRe[k] = out[0];
+      partYIm[k] = out[1];
+      stampAdmittance(a, np.plus, np.minus, out[0], out[1]);
+      return;
+    }
+    if (Number.isFinite(p.resistanceOhm) && p.resistanceOhm > 0) stampAdmittance(a, np.plus, np.minus, 1 / p.resistanceOhm, 0);
+  });
+  for (const s of extraShunts) add(a, s.node, s.node, s.re, s.im);
+  let lu: CLu;
+  try {
+    lu = cLu(a);
+  } catch (e) {
+    if (!(e instanceof SkeinError) || e.code !== 'E_SINGULAR') throw e;
+    const row = (e.details.row as number) ?? 0;
+    const where = row < net.nNodes ? `node ${net.nodeNames[row]}` : 'a constraint row (an ideal voltage drive or short in a loop of others)';
+    throw new SkeinError('E_SPECTRAL_SINGULAR', `the network's nodal system is singular at ${(omegaRadS / (2 * Math.PI)).toPrecision(6)} Hz near ${where}; every node needs a path to the reference, and a lossless line is singular exactly at its resonances`, { frequencyHz: omegaRadS / (2 * Math.PI), row });
+  }
+  return { omegaRadS, lu, blocks, partYRe, partYIm };
+}
+
+/**
+ * Right-hand side for one set of source phasors (null entries: source inactive or removed).
+ * Each column of the result is one excitation.
+ */
+export function sourceRhs(net: SpectralNetwork, states: SourceState[]): CMatrix {
+  const m = states.length;
+  const b = cZeros(net.size, m);
+  states.forEach((st, col) => {
+    net.parts.forEach((np, k) => {
+      const ph = st[k];
+      if (!ph || np.waveform === undefined) return;
+      const p = np.part;
+      const put = (row: number, re: number, im: number): void => {
+        if (row < 0) return;
+        b.re[row * m + col] += re;
+        b.im[row * m + col] += im;
+      };
+      if (p.drive === 'voltage') {
+        if (np.row >= 0) put(np.row, ph.re, ph.im);
+        else {
+          put(np.plus, ph.re / p.resistanceOhm, ph.im / p.resistanceOhm);
+          put(np.minus, -ph.re / p.resistanceOhm, -ph.im / p.resistanceOhm);
+        }
+      } else {
+        put(np.plus, ph.re, ph.im);
+        put(np.minus, -ph.re, -ph.im);
+      }
+    });
+  });
+  return b;
+}
+
+/** Solves the assembled system for the given right-hand sides. */
+export function solveAssembled(asm: Assembled, rhs: CMatrix): CMatrix {
+  return cLuSolve(asm.lu, rhs);
+}
+
+/** Line indices by id. @throws InputError E_SPECTRAL_LINE naming the lines. */
+export function lineIndex(net: SpectralNetwork, id: string, path: ReadonlyArray<string | number>): number {
+  const i = net.lines.findIndex((l) => l.line.id === id);
+  if (i < 0) throw badInput(path, `must name a line (${net.lines.map((l) => l.line.id).join(', ')})`, id, 'E_SPECTRAL_LINE');
+  return i;
+}
