@@ -15,6 +15,7 @@ import { formatCheck, formatInspect, formatRunSummary } from './summary.ts';
 import { toCsv } from './export.ts';
 import { formatParams, lineParams, parseFrequencies } from './params.ts';
 import { sectionSchema } from '@skein/lines';
+import { writePlots, writeReport } from '@skein/report';
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 /** The built-in demo scenario. */
@@ -25,10 +26,14 @@ const USAGE = `skein: pulses in wire networks
 usage: skein <command> [options]
 
 commands:
-  run FILE [--out PATH]        simulate a scenario (YAML or JSON), write a results file
+  run FILE [--out PATH] [--report]
+                               simulate a scenario (YAML or JSON), write a results file
+                               (and with --report the SVG plots and the HTML report beside it)
   check FILE [--json]          validate a scenario and print derived data (modes, Zc, delays, step)
-  demo [--out DIR]             run the built-in demo scenario
+  demo [--out DIR]             run the built-in demo scenario, write its results and report
   inspect RESULTS              summarise a results file
+  plot RESULTS [--out DIR]     SVG plots: traces, space-time map, energy ledger, spectra
+  report RESULTS [--out PATH]  one self-contained HTML report (opens offline)
   export RESULTS --csv [--out PATH]
                                write the traces as CSV (stdout without --out)
   params FILE [--at F1,F2..] [--json]
@@ -105,6 +110,18 @@ async function runFile(file: string, outPath: string, flags: Flags, io: Io): Pro
   progress.done();
   writeResults(outPath, result, file);
   io.out(formatRunSummary(result, outPath));
+  if (flags.report) writeReportFiles(outPath, io);
+}
+
+/** Plots and the HTML report beside a results file; prints their paths. */
+function writeReportFiles(resultsPath: string, io: Io): string {
+  const loaded = readResults(resultsPath);
+  const dir = dirname(resultsPath);
+  const plots = writePlots(resultsPath, dir, {});
+  const html = writeReport(loaded, resultsPath.replace(/\.msgpack$/, '') + '.report.html', { resultsFile: basename(resultsPath) });
+  io.out(`Plots: ${plots.map((p) => p.path).join(', ')}`);
+  io.out(`Report: ${html}`);
+  return html;
 }
 
 interface Flags {
@@ -114,6 +131,7 @@ interface Flags {
   quiet?: boolean;
   json?: boolean;
   csv?: boolean;
+  report?: boolean;
   help?: boolean;
   at?: string;
   section?: boolean;
@@ -137,6 +155,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         quiet: { type: 'boolean', short: 'q' },
         json: { type: 'boolean' },
         csv: { type: 'boolean' },
+        report: { type: 'boolean' },
         at: { type: 'string' },
         section: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
@@ -163,7 +182,19 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         const dir = flags.out ?? 'skein-demo';
         const { mkdirSync } = await import('node:fs');
         mkdirSync(dir, { recursive: true });
-        await runFile(DEMO_SCENARIO, join(dir, 'demo.results.msgpack'), flags, io);
+        await runFile(DEMO_SCENARIO, join(dir, 'demo.results.msgpack'), { ...flags, report: true }, io);
+        return 0;
+      }
+      case 'plot': {
+        const file = needFile(rest, 'plot', 'a results file');
+        const plots = writePlots(readResults(file), flags.out ?? dirname(file), {});
+        io.out(plots.map((p) => `${p.kind}: ${p.path}`).join('\n'));
+        return 0;
+      }
+      case 'report': {
+        const file = needFile(rest, 'report', 'a results file');
+        const out = flags.out ?? file.replace(/\.msgpack$/, '') + '.report.html';
+        io.out(`Report: ${writeReport(readResults(file), out, { resultsFile: basename(file) })}`);
         return 0;
       }
       case 'check': {

@@ -26,6 +26,8 @@ export const inductorLoad = defineLoad({
     return {
       kind: 'linear',
       conductanceS: g,
+      // Frequency domain: Y = 1 / (j omega L) (infinite at DC: a spectral run starts above 0 Hz).
+      admittance(w: number, out: Float64Array): void { out[0] = 0; out[1] = -1 / (w * p.inductance); },
       history: (): number => s[1] + g * s[0],
       accept(vV: number): void {
         s[1] = s[1] + g * (s[0] + vV);

@@ -12,6 +12,10 @@ export const openLoad = defineLoad({
   summary: 'An open circuit (no current)',
   params: {},
   create() {
-    return { kind: 'linear', conductanceS: 0 };
+    return {
+      kind: 'linear',
+      conductanceS: 0,
+      admittance(_w: number, out: Float64Array): void { out[0] = 0; out[1] = 0; },
+    };
   },
 });

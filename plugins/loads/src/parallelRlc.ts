@@ -43,6 +43,11 @@ export const parallelRlcLoad = defineLoad({
     return {
       kind: 'linear',
       conductanceS: g,
+      // Frequency domain: Y = 1/R + j omega C + 1 / (j omega L).
+      admittance(w: number, out: Float64Array): void {
+        out[0] = gr;
+        out[1] = w * c - (l === undefined ? 0 : 1 / (w * l));
+      },
       history: (): number => s[1] + (gl - gc) * s[0] - s[2],
       accept(vV: number): void {
         s[1] = s[1] + gl * (s[0] + vV);

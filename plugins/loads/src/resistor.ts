@@ -14,6 +14,12 @@ export const resistorLoad = defineLoad({
     resistance: { unit: 'ohm', min: 0, exclusiveMin: true, summary: 'resistance' },
   },
   create(p) {
-    return { kind: 'linear', conductanceS: 1 / p.resistance };
+    const g = 1 / p.resistance;
+    return {
+      kind: 'linear',
+      conductanceS: g,
+      // Frequency domain: Y = 1 / R.
+      admittance(_w: number, out: Float64Array): void { out[0] = g; out[1] = 0; },
+    };
   },
 });

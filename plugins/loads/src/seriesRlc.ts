@@ -47,6 +47,13 @@ export const seriesRlcLoad = defineLoad({
     return {
       kind: 'linear',
       conductanceS: g,
+      // Frequency domain: Y = 1 / (R + j omega L + 1 / (j omega C)).
+      admittance(w: number, out: Float64Array): void {
+        const x = w * l - (c === undefined ? 0 : 1 / (w * c));
+        const d = r * r + x * x;
+        out[0] = r / d;
+        out[1] = -x / d;
+      },
       history: (): number => -e() * g,
       accept(vV: number): void {
         const iNew = g * (vV - e());

@@ -31,6 +31,12 @@ export const timedSwitchLoad = defineLoad({
     // boxed on return in the conformance suite's measurement (39 B per call).
     const s = new Float64Array([tc, to, 1 / p.onResistance, 1 / p.offResistance]);
     const conductanceAt = (tS: number): number => (tS >= s[0] && tS < s[1] ? s[2] : s[3]);
-    return { kind: 'linear', conductanceS: conductanceAt(0), conductanceAt };
+    return {
+      kind: 'linear',
+      conductanceS: conductanceAt(0),
+      conductanceAt,
+      // Frequency domain: the state at t = 0 (a spectral run is a small-signal, fixed-state view).
+      admittance(_w: number, out: Float64Array): void { out[0] = conductanceAt(0); out[1] = 0; },
+    };
   },
 });

@@ -45,7 +45,7 @@ export const linePointProbe = defineProbe({
           state.record(tp, s);
           peaks.add(0, s, state.tS);
         },
-        finish: () => ({ peaks: peaks.result() }),
+        finish: () => ({ kind: 'line-point', line: p.line, positionM: p.position, quantity: p.quantity, peaks: peaks.result() }),
       };
     }
     const current = p.quantity === 'current';
@@ -62,7 +62,7 @@ export const linePointProbe = defineProbe({
           peaks.add(j, x, t);
         }
       },
-      finish: () => ({ peaks: peaks.result() }),
+      finish: () => ({ kind: 'line-point', line: p.line, positionM: p.position, quantity: p.quantity, peaks: peaks.result() }),
     };
   },
 });

@@ -92,6 +92,7 @@ export function createFakeProbeRig(dtS: number, endS: number, id: string, phase 
       return nHandles++ as PointHandle;
     },
     conductorsOf: () => FAKE_CONDUCTORS,
+    lineLength: () => 10,
     part: () => nHandles++ as PartHandle,
     trace(name) {
       traceNames.push(name);

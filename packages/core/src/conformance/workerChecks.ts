@@ -41,8 +41,8 @@ export interface LoadOutcome {
 
 const TYPE_NAME = /^[a-z][a-z0-9]*(-[a-z0-9]+)*$/;
 const INSTANCE_KEYS: Record<AnyPlugin['kind'], readonly string[]> = {
-  source: ['value', 'shortestFeatureS', 'settledAfterS', 'finish'],
-  load: ['kind', 'conductanceS', 'history', 'accept', 'conductanceAt', 'evaluate', 'storedEnergyJ', 'finish'],
+  source: ['value', 'laplace', 'shortestFeatureS', 'settledAfterS', 'finish'],
+  load: ['kind', 'conductanceS', 'history', 'accept', 'conductanceAt', 'evaluate', 'limit', 'storedEnergyJ', 'admittance', 'finish'],
   probe: ['sample', 'finish'],
 };
 /** Steps of the shared-state and value checks (within the fake trace ring). */
@@ -295,7 +295,7 @@ async function checkBehaviour(p: AnyPlugin, label: string, input: WorkerInput, c
     for (const o of [out0, out1]) if (o !== undefined && !isPlainData(o)) plain = false;
     checks.push({
       name: 'finish-after-failure', plugin: label, ok: plain,
-      message: plain ? 'finish(error) runs before the first step and after 10 steps without throwing' : 'finish returned something that is not plain data (numbers, strings, booleans, null, arrays, plain objects)',
+      message: plain ? 'finish(error) runs before the first step and after 10 steps without throwing' : 'finish returned something that is not plain data (numbers, strings, booleans, null, arrays, plain objects, bytes)',
     });
   } catch (e) {
     checks.push({ name: 'finish-after-failure', plugin: label, ok: false, message: `finish(error) threw ${describeError(e)}` });
@@ -331,6 +331,8 @@ function isPlainData(x: unknown, depth = 0): boolean {
   if (depth > 32) return false;
   if (x === null || typeof x === 'number' || typeof x === 'string' || typeof x === 'boolean') return true;
   if (Array.isArray(x)) return x.every((y) => isPlainData(y, depth + 1));
+  // Bytes are MessagePack's plain "bin" type (float64 samples travel that way).
+  if (x instanceof Uint8Array) return true;
   if (typeof x === 'object') {
     const proto = Object.getPrototypeOf(x);
     if (proto !== Object.prototype && proto !== null) return false;

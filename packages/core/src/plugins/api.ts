@@ -180,6 +180,8 @@ export interface ProbeSetupContext extends SetupContext {
   linePoint(line: string, positionM: number, paramName?: string): PointHandle;
   /** Conductor names of a line. */
   conductorsOf(line: string, paramName?: string): readonly string[];
+  /** Length of a line [m]. */
+  lineLength(line: string, paramName?: string): number;
   /** A lumped part (load or source) by id. */
   part(id: string, paramName?: string): PartHandle;
   /** Ids of all parts, sources first, in the engine's fixed order. */

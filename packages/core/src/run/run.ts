@@ -181,6 +181,11 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
           if (l === undefined) throw fail(param, `must name a line: ${[...lineIndex.keys()].join(', ')}`, line);
           return sc.lines[l].conductors;
         },
+        lineLength(line, param) {
+          const l = lineIndex.get(line);
+          if (l === undefined) throw fail(param, `must name a line: ${[...lineIndex.keys()].join(', ')}`, line);
+          return sc.lines[l].lengthM;
+        },
         part(id, param) {
           const k = partIndex.get(id);
           if (k === undefined) throw fail(param, `must name a part: ${[...partIndex.keys()].join(', ') || '(none)'}`, id);

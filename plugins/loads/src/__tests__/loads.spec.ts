@@ -238,3 +238,32 @@ describe('timedSwitchLoad', () => {
     expect(() => makeLinear(timedSwitchLoad, { closeAt: 2e-6, openAt: 1e-6, onResistance: 1e-3, offResistance: 1e9 }, 1e-9)).toThrow(/openAt/);
   });
 });
+
+describe('admittance hooks', () => {
+  it('give the textbook admittances of R, C, L and series and parallel RLC', async () => {
+    // Y = 1/R, j w C, 1/(j w L); series RLC resonates at w0 = 1/sqrt(LC) with Y = 1/R (circuit
+    // theory, common practice).
+    const { resistorLoad, capacitorLoad, inductorLoad, seriesRlcLoad, parallelRlcLoad } = await import('../index.ts');
+    const ctx = { dtS: 1e-9, endS: 1e-6, id: 'x', warn: () => {} };
+    const out = new Float64Array(2);
+    const w = 2 * Math.PI * 1e6;
+    const y = async (plugin: any, params: any): Promise<[number, number]> => {
+      const inst = await plugin.create(params, ctx);
+      inst.admittance(w, out);
+      return [out[0], out[1]];
+    };
+    expect(await y(resistorLoad, { resistance: 50 })).toEqual([0.02, 0]);
+    const [, bc] = await y(capacitorLoad, { capacitance: 1e-9, initialVoltage: 0 });
+    expect(Math.abs(bc - w * 1e-9)).toBeLessThan(1e-18);
+    const [, bl] = await y(inductorLoad, { inductance: 1e-6, initialCurrent: 0 });
+    expect(Math.abs(bl + 1 / (w * 1e-6))).toBeLessThan(1e-15);
+    const L = 1e-6;
+    const C = 1 / (w * w * L);
+    const [gs, bs] = await y(seriesRlcLoad, { resistance: 10, inductance: L, capacitance: C, initialCurrent: 0, initialVoltage: 0 });
+    expect(Math.abs(gs - 0.1)).toBeLessThan(1e-12);
+    expect(Math.abs(bs)).toBeLessThan(1e-9);
+    const [gp, bp] = await y(parallelRlcLoad, { resistance: 10, inductance: L, capacitance: C, initialCurrent: 0, initialVoltage: 0 });
+    expect(Math.abs(gp - 0.1)).toBeLessThan(1e-12);
+    expect(Math.abs(bp)).toBeLessThan(1e-9);
+  });
+});

@@ -8,7 +8,7 @@ const params = { 'line-end-current': { line: 'feeder', end: 'to' }, 'line-point'
 describe('checkPluginConformance', () => {
   it('passes every check for @skein/plugin-probes, loaded by its package name in a worker', async () => {
     const report = await checkPluginConformance('@skein/plugin-probes', { parentUrl: import.meta.url, params });
-    expect(report.plugins).toEqual(['probe:node-voltage', 'probe:voltage-between', 'probe:line-end-current', 'probe:line-point', 'probe:part', 'probe:energy-ledger']);
+    expect(report.plugins).toEqual(['probe:node-voltage', 'probe:voltage-between', 'probe:line-end-current', 'probe:line-point', 'probe:part', 'probe:energy-ledger', 'probe:space-time']);
     expect(report.ok, formatConformanceFailures(report)).toBe(true);
     // Each plugin got the allocation, shared-state and finish checks (not only the shape checks).
     for (const name of ['no-step-allocation', 'no-shared-state', 'finish-after-failure', 'param-schema']) {

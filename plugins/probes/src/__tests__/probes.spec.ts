@@ -59,8 +59,8 @@ probes:
 const TOL = 1e-9;
 
 describe('probes', () => {
-  it('lists the six standard probes in a fixed order', () => {
-    expect(probes.map((p) => p.type)).toEqual(['node-voltage', 'voltage-between', 'line-end-current', 'line-point', 'part', 'energy-ledger']);
+  it('lists the seven standard probes in a fixed order', () => {
+    expect(probes.map((p) => p.type)).toEqual(['node-voltage', 'voltage-between', 'line-end-current', 'line-point', 'part', 'energy-ledger', 'space-time']);
   });
 });
 
@@ -201,5 +201,46 @@ probes:
     const vEnd = r.at('vl.v', 12e-9);
     // The capacitor's absorbed energy is C v^2 / 2 exactly for the trapezoidal companion (ledger.ts).
     expect(Math.abs(out.absorbed.C1 - 0.5 * 100e-12 * vEnd * vEnd)).toBeLessThanOrEqual(1e-9 * out.absorbed.C1);
+  });
+});
+
+describe('spaceTimeProbe', () => {
+  it('maps a travelling step as f(t - x / v) along a matched line', async () => {
+    // A matched line carries the incident wave unchanged: v(x, t) = 0.5 for t >= x / v, else 0
+    // (d'Alembert's travelling-wave solution, classic). Step 0.5 ns, 2e8 m/s: 0.1 m per step, and
+    // points every 0.2 m, so every sample is a whole-step delay and exact.
+    const { loadPluginModules, PluginRegistry, resolveScenarioText, runScenario, bytesToFloat64 } = await import('@skein/core');
+    const registry = await loadPluginModules(new PluginRegistry(), ['@skein/plugin-waveforms', '@skein/plugin-loads', '@skein/plugin-probes'], import.meta.url);
+    const r = await runScenario(resolveScenarioText(`
+skein: 1
+time: { end: 20ns, step: 0.5ns }
+lines:
+  a: { from: S, to: M, length: 1m, impedance: 50ohm, velocity: 2e8m/s }
+  b: { from: M, to: L, length: 1m, impedance: 50ohm, velocity: 2e8m/s }
+junctions:
+  S:
+    nodes: { s: [a] }
+    parts: { g: { source: step, between: [s, ref], amplitude: 1, resistance: 50ohm } }
+  M:
+    nodes: { m: [a, b] }
+  L:
+    nodes: { l: [b] }
+    parts: { R: { load: resistor, between: [l, ref], resistance: 50ohm } }
+probes:
+  map: { probe: space-time, path: "a,b", points: 11 }
+`, { registry }), { registry });
+    const out = r.outputs.map as { positionsM: number[]; timesS: number[]; values: Uint8Array; boundaries: Array<{ positionM: number }> };
+    expect(out.positionsM.length).toBe(11);
+    expect(out.boundaries[0].positionM).toBe(1);
+    const v = bytesToFloat64(out.values);
+    const n = 11;
+    for (let ti = 0; ti < out.timesS.length; ti++) {
+      for (let i = 0; i < n; i++) {
+        const t = out.timesS[ti];
+        const x = out.positionsM[i];
+        const expected = t + 1e-15 >= x / 2e8 ? 0.5 : 0;
+        expect(Math.abs(v[ti * n + i] - expected)).toBeLessThan(1e-12);
+      }
+    }
   });
 });
