@@ -4,7 +4,7 @@
  * queue), and keep the table up to date on disk. A case whose digest repeats is computed once;
  * an interrupted sweep run again computes only the cases it had not finished.
  */
-import { existsSync, mkdirSync, readFileSync } from 'node:fs';
+import { copyFileSync, existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { join, relative } from 'node:path';
 import { digestOf, ENGINE_VERSION, resolveScenarioData, resolveScenarioText, writeFileAtomic, type PluginRegistry } from '@skein/core';
 import { decodeCaseRecord, encodeCaseRecord, failedRecord, type CaseRecord, type CaseTask } from './caseRun.ts';
@@ -96,7 +96,8 @@ export async function runSweep(spec: SweepSpec, options: RunSweepOptions): Promi
   const counts = { cases: cases.length, computed: 0, cached: 0, duplicates: 0, failed: 0 };
   const pending: Array<{ slot: number; task: CaseTask; resultsFile: string | null }> = [];
   const firstOfKey = new Map<string, number>();
-  const repeats: Array<{ slot: number; of: number }> = [];
+  const firstResultsFile = new Map<number, string>();
+  const repeats: Array<{ slot: number; of: number; resultsFile: string | null }> = [];
 
   const rowOf = (slot: number, rec: CaseRecord, source: SweepRow['source'], resultsFile: string | null): SweepRow => ({
     index: cases[slot].index,
@@ -123,11 +124,12 @@ export async function runSweep(spec: SweepSpec, options: RunSweepOptions): Promi
     const key = `${digest}-${outputsKey}`;
     const resultsFile = options.resultsDir ? join(options.resultsDir, `case-${c.index}.results.msgpack`) : null;
     const first = firstOfKey.get(key);
-    if (first !== undefined && !resultsFile) {
-      repeats.push({ slot, of: first });
+    if (first !== undefined) {
+      repeats.push({ slot, of: first, resultsFile });
       return;
     }
     firstOfKey.set(key, slot);
+    if (resultsFile) firstResultsFile.set(slot, resultsFile);
     if (options.cacheDir && existsSync(cachePath(options.cacheDir, key)) && (!resultsFile || existsSync(resultsFile))) {
       try {
         const rec = decodeCaseRecord(readFileSync(cachePath(options.cacheDir, key)));
@@ -221,10 +223,13 @@ export async function runSweep(spec: SweepSpec, options: RunSweepOptions): Promi
   } finally {
     if (ownExecutor && executor) await executor.close();
   }
-  for (const { slot, of } of repeats) {
+  for (const { slot, of, resultsFile } of repeats) {
     const src = rows[of];
     if (!src) continue;
-    rows[slot] = { ...src, index: cases[slot].index, values: cases[slot].values, source: 'duplicate' };
+    // A repeat gets its own copy of the results file, so that every case index has one.
+    const srcFile = firstResultsFile.get(of);
+    if (resultsFile && srcFile && existsSync(srcFile)) copyFileSync(srcFile, resultsFile);
+    rows[slot] = { ...src, index: cases[slot].index, values: cases[slot].values, source: 'duplicate', resultsFile: resultsFile && srcFile ? relativeTo(options.tablePath, resultsFile) : null };
     counts.duplicates++;
     if (src.status === 'failed') counts.failed++;
     finished++;

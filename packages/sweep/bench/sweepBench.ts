@@ -1,0 +1,59 @@
+/**
+ * Throughput of the case pool: the same small cases (the cable run of the examples, load
+ * resistance swept) on 1 and on 2 worker threads, in the same run. The pools are started and
+ * warmed (tsx loader and plugins loaded in every worker) before the timer, and no cache is used,
+ * so the timer covers exactly what a sweep does per case: resolve and key it, run it on a worker,
+ * collect its outputs. Prints cases per second for each pool and their ratio.
+ *
+ *   npx tsx packages/sweep/bench/sweepBench.ts [--cases 200] [--json]
+ */
+import { readFileSync } from 'node:fs';
+import { fileURLToPath } from 'node:url';
+import { loadPluginModules, parseLocatedDocument, PluginRegistry } from '@skein/core';
+import { STANDARD_PLUGINS } from '@skein/cli';
+import { createCasePool, runSweep, sweepFromData, type CaseExecutor } from '../src/index.ts';
+
+const argv = process.argv.slice(2);
+const at = argv.indexOf('--cases');
+const nCases = at >= 0 ? Number(argv[at + 1]) : 200;
+const json = argv.includes('--json');
+
+const base = parseLocatedDocument(readFileSync(fileURLToPath(new URL('../examples/cableRun.yaml', import.meta.url)), 'utf8')).data as Record<string, unknown>;
+// 800 steps per case: a small case, a few milliseconds of stepping.
+base.time = { end: '8us', step: '0.01us' };
+const spec = sweepFromData({
+  sweep: 1,
+  title: 'pool throughput',
+  scenario: base,
+  parameters: { load: { path: 'junctions.L.parts.load.resistance', range: { from: 10, to: 1000, count: nCases, scale: 'log', unit: 'ohm' } } },
+  outputs: { peak: { peak: 'vLoad.v' }, energy: { energy: 'ledger', part: 'load' } },
+});
+
+const registry = await loadPluginModules(new PluginRegistry(), STANDARD_PLUGINS, import.meta.resolve('@skein/cli'));
+
+async function throughput(workers: number): Promise<{ workers: number; seconds: number; casesPerS: number; sum: number }> {
+  const pool = createCasePool({ modules: registry.modules, workers });
+  await pool.warm();
+  const executor: CaseExecutor = { capacity: workers * 2, run: (t) => pool.run(t), close: async () => {} };
+  const t0 = performance.now();
+  const out = await runSweep(spec, { registry, executor });
+  const seconds = (performance.now() - t0) / 1000;
+  await pool.close();
+  if (out.counts.computed !== nCases || out.counts.failed !== 0) throw new Error(`bench: expected ${nCases} computed cases, got ${JSON.stringify(out.counts)}`);
+  // Use the results, so that nothing can be skipped.
+  const sum = out.table.rows.reduce((s, r) => s + r.outputs[0], 0);
+  return { workers, seconds, casesPerS: nCases / seconds, sum };
+}
+
+const one = await throughput(1);
+const two = await throughput(2);
+if (one.sum !== two.sum) throw new Error(`bench: 1 and 2 workers disagree (${one.sum} vs ${two.sum})`);
+const ratio = two.casesPerS / one.casesPerS;
+if (json) {
+  console.log(JSON.stringify({ cases: nCases, one, two, ratio }));
+} else {
+  console.log(`sweep pool throughput, ${nCases} cases`);
+  console.log(`  1 worker : ${one.casesPerS.toFixed(1)} cases/s (${one.seconds.toFixed(2)} s)`);
+  console.log(`  2 workers: ${two.casesPerS.toFixed(1)} cases/s (${two.seconds.toFixed(2)} s)`);
+  console.log(`  ratio 2/1: ${ratio.toFixed(2)} (target >= 1.8)`);
+}
