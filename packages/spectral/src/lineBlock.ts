@@ -21,6 +21,51 @@ export interface LineBlock {
   gammaIm: Float64Array;
 }
 
+/** The modal solution of a line at one frequency (current modes of Y Z). */
+export interface LineModes {
+  n: number;
+  /** Current-mode matrix T (columns: modes), I(z) = T (e^{-gamma z} a - e^{-gamma (l - z)} b). */
+  t: CMatrix;
+  /** Voltage map M = Y^-1 T gamma (= Zc T): V(z) = M (e^{-gamma z} a + e^{-gamma (l - z)} b). */
+  m: CMatrix;
+  gammaRe: Float64Array;
+  gammaIm: Float64Array;
+  /** E = exp(-gamma l) per mode. */
+  eRe: Float64Array;
+  eIm: Float64Array;
+}
+
+/**
+ * Modal solution: Y Z = T gamma^2 T^-1 with Re gamma >= 0, M = Y^-1 T gamma, E = exp(-gamma l).
+ * Wave amplitudes a (forward, referenced at z = 0) and b (backward, referenced at z = l) keep every
+ * coefficient bounded (|E| <= 1), so the network solver stays regular at a lossless line's
+ * half-wave resonances, where the admittance block of lineBlock is infinite.
+ * @throws SkeinError E_SINGULAR when Y or T is singular (Y = 0 at DC without G).
+ */
+export function lineModes(z: CMatrix, y: CMatrix, lengthM: number): LineModes {
+  const n = z.rows;
+  const eig = cEigen(cMul(y, z));
+  const t = eig.vectors;
+  const gammaRe = new Float64Array(n);
+  const gammaIm = new Float64Array(n);
+  const eRe = new Float64Array(n);
+  const eIm = new Float64Array(n);
+  const tg = cZeros(n);
+  for (let m = 0; m < n; m++) {
+    const [gr, gi] = csqrt(eig.valuesRe[m], eig.valuesIm[m]);
+    gammaRe[m] = gr;
+    gammaIm[m] = gi;
+    eRe[m] = Math.exp(-gr * lengthM) * Math.cos(gi * lengthM);
+    eIm[m] = -Math.exp(-gr * lengthM) * Math.sin(gi * lengthM);
+    for (let i = 0; i < n; i++) {
+      const vr = t.re[i * n + m], vi = t.im[i * n + m];
+      tg.re[i * n + m] = vr * gr - vi * gi;
+      tg.im[i * n + m] = vr * gi + vi * gr;
+    }
+  }
+  return { n, t, m: cMul(cInverse(y), tg), gammaRe, gammaIm, eRe, eIm };
+}
+
 /** expm1 of a complex argument, accurate near 0: [re, im]. */
 function cexpm1(x: number, y: number): [number, number] {
   const ex = Math.exp(x);

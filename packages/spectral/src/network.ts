@@ -3,8 +3,10 @@
  * and the modified nodal system (MNA) at one angular frequency.
  *
  * Unknowns: every junction node voltage (global numbering: junction by junction, nodes in their
- * order), then one branch current per ideal voltage drive and per short. Line blocks are stamped
- * between their end nodes, loads by their `admittance` hook, a voltage drive with series R as its
+ * order), one branch current per ideal voltage drive and per short, then per line its 2n modal
+ * wave amplitudes (forward at z = 0, backward at z = l; see lineModes). A line enters as its wave
+ * equations between its end nodes (equivalent to its admittance block, but regular at the
+ * half-wave resonances of a lossless line), loads by their `admittance` hook, a voltage drive with series R as its
  * Norton equivalent, an ideal voltage drive (R = 0) and a short as a constraint row, a current
  * drive as an injection with its parallel conductance (modified nodal analysis: Ho, Ruehli &
  * Brennan, IEEE Trans. CAS 22(6), 1975, from memory).
@@ -14,7 +16,7 @@ import {
   type LoadInstance, type PluginRegistry, type ResolvedLine, type ResolvedPart, type ResolvedScenario, type SetupContext, type WaveformInstance,
 } from '@skein/core';
 import { cFrom, cLu, cLuSolve, cZeros, type CLu, type CMatrix } from './complex.ts';
-import { lineBlock, type LineBlock } from './lineBlock.ts';
+import { lineModes, type LineModes } from './lineBlock.ts';
 
 /** A line of the network with its end nodes (global indices, per conductor). */
 interface NetLine {
@@ -22,6 +24,8 @@ interface NetLine {
   n: number;
   nodes0: Int32Array;
   nodes1: Int32Array;
+  /** First MNA unknown of its wave amplitudes: a (n, forward at z = 0), then b (n, backward at z = l). */
+  offset: number;
 }
 
 /** A part of the network with its terminals (global node indices, -1 = reference). */
@@ -60,7 +64,8 @@ export type SourceState = Array<{ re: number; im: number } | null>;
 export interface Assembled {
   omegaRadS: number;
   lu: CLu;
-  blocks: LineBlock[];
+  /** Modal solution of each line at this frequency. */
+  modes: LineModes[];
   /** Load admittances [S], per part (NaN for sources and shorts). */
   partYRe: Float64Array;
   partYIm: Float64Array;
@@ -84,7 +89,7 @@ export async function compileNetwork(scenario: ResolvedScenario, registry: Plugi
   const nNodes = nodeOffset[scenario.junctions.length];
   const lines: NetLine[] = scenario.lines.map((line) => {
     const n = line.conductors.length;
-    return { line, n, nodes0: new Int32Array(n).fill(-1), nodes1: new Int32Array(n).fill(-1) };
+    return { line, n, nodes0: new Int32Array(n).fill(-1), nodes1: new Int32Array(n).fill(-1), offset: -1 };
   });
   scenario.junctions.forEach((j, ji) => {
     for (const p of j.ports) (p.end === 0 ? lines[p.line].nodes0 : lines[p.line].nodes1)[p.conductor] = nodeOffset[ji] + p.node;
@@ -139,6 +144,10 @@ export async function compileNetwork(scenario: ResolvedScenario, registry: Plugi
         parts.push({ part: p, plus, minus, load: inst, row: inst.kind === 'short' ? size++ : -1 });
       }
     }
+  }
+  for (const l of lines) {
+    l.offset = size;
+    size += 2 * l.n;
   }
   return { scenario, nNodes, size, nodeOffset, lines, parts, waveforms, nodeNames };
 }
@@ -198,21 +207,36 @@ export function stampAdmittance(m: CMatrix, p: number, q: number, re: number, im
  */
 export function assemble(net: SpectralNetwork, omegaRadS: number, removed: readonly boolean[], extraShunts: ReadonlyArray<{ node: number; re: number; im: number }> = []): Assembled {
   const a = cZeros(net.size);
-  const blocks: LineBlock[] = [];
+  const modes: LineModes[] = [];
   for (const l of net.lines) {
     const { z, y } = lineZY(l.line, omegaRadS);
-    const b = lineBlock(z, y, l.line.lengthM);
-    blocks.push(b);
+    const md = lineModes(z, y, l.line.lengthM);
+    modes.push(md);
     const n = l.n;
+    // KCL: current into the line at z = 0 is T (a - E b), at z = l it is T (b - E a).
+    // Rows of the line: M (a + E b) - V(0) = 0 and M (E a + b) - V(l) = 0, scaled by 1 / max|M|.
+    let scale = 0;
+    for (let i = 0; i < n * n; i++) scale = Math.max(scale, Math.hypot(md.m.re[i], md.m.im[i]));
+    const inv = scale > 0 ? 1 / scale : 1;
+    const oa = l.offset, ob = l.offset + n;
     for (let i = 0; i < n; i++) {
       for (let j = 0; j < n; j++) {
-        const r11 = b.y11.re[i * n + j], i11 = b.y11.im[i * n + j];
-        const r12 = b.y12.re[i * n + j], i12 = b.y12.im[i * n + j];
-        add(a, l.nodes0[i], l.nodes0[j], r11, i11);
-        add(a, l.nodes1[i], l.nodes1[j], r11, i11);
-        add(a, l.nodes0[i], l.nodes1[j], r12, i12);
-        add(a, l.nodes1[i], l.nodes0[j], r12, i12);
+        const tr = md.t.re[i * n + j], ti = md.t.im[i * n + j];
+        const er = md.eRe[j], ei = md.eIm[j];
+        const ter = tr * er - ti * ei, tei = tr * ei + ti * er;
+        add(a, l.nodes0[i], oa + j, tr, ti);
+        add(a, l.nodes0[i], ob + j, -ter, -tei);
+        add(a, l.nodes1[i], ob + j, tr, ti);
+        add(a, l.nodes1[i], oa + j, -ter, -tei);
+        const mr = md.m.re[i * n + j] * inv, mi = md.m.im[i * n + j] * inv;
+        const mer = mr * er - mi * ei, mei = mr * ei + mi * er;
+        add(a, oa + i, oa + j, mr, mi);
+        add(a, oa + i, ob + j, mer, mei);
+        add(a, ob + i, oa + j, mer, mei);
+        add(a, ob + i, ob + j, mr, mi);
       }
+      add(a, oa + i, l.nodes0[i], -inv, 0);
+      add(a, ob + i, l.nodes1[i], -inv, 0);
     }
   }
   const partYRe = new Float64Array(net.parts.length).fill(NaN);
@@ -253,10 +277,10 @@ export function assemble(net: SpectralNetwork, omegaRadS: number, removed: reado
   } catch (e) {
     if (!(e instanceof SkeinError) || e.code !== 'E_SINGULAR') throw e;
     const row = (e.details.row as number) ?? 0;
-    const where = row < net.nNodes ? `node ${net.nodeNames[row]}` : 'a constraint row (an ideal voltage drive or short in a loop of others)';
-    throw new SkeinError('E_SPECTRAL_SINGULAR', `the network's nodal system is singular at ${(omegaRadS / (2 * Math.PI)).toPrecision(6)} Hz near ${where}; every node needs a path to the reference, and a lossless line is singular exactly at its resonances`, { frequencyHz: omegaRadS / (2 * Math.PI), row });
+    const where = row < net.nNodes ? `node ${net.nodeNames[row]}` : row < (net.lines[0]?.offset ?? net.size) ? 'a constraint row (an ideal voltage drive or short in a loop of others)' : 'the wave equations of a line';
+    throw new SkeinError('E_SPECTRAL_SINGULAR', `the network's nodal system is singular at ${(omegaRadS / (2 * Math.PI)).toPrecision(6)} Hz near ${where}; every node needs a path to the reference`, { frequencyHz: omegaRadS / (2 * Math.PI), row });
   }
-  return { omegaRadS, lu, blocks, partYRe, partYIm };
+  return { omegaRadS, lu, modes, partYRe, partYIm };
 }
 
 /**

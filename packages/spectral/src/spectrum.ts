@@ -277,18 +277,21 @@ function planOutput(net: SpectralNetwork, o: SpectralOutput, oi: number, asm: ()
       } else if (l.n !== 1) {
         throw badInput([...path, 'conductor'], `must name a conductor of line ${l.line.id} (${l.line.conductors.join(', ')}): it has ${l.n}`, undefined, 'E_SPECTRAL_OUTPUT');
       }
-      const here = o.end === 'from' ? l.nodes0 : l.nodes1;
-      const there = o.end === 'from' ? l.nodes1 : l.nodes0;
+      const here0 = o.end === 'from';
       return {
         name, unit: 'A',
         read: () => {
-          const b = asm().blocks[li];
+          const md = asm().modes[li];
           const x = sol();
-          let re = 0, im = 0;
+let re = 0, im = 0;
+          // Into the line: T (a - E b) at z = 0, T (b - E a) at z = l.
+          const oh = here0 ? l.offset : l.offset + l.n, ot = here0 ? l.offset + l.n : l.offset;
           for (let j = 0; j < l.n; j++) {
-            const q = c * l.n + j;
-            re += b.y11.re[q] * x.re[here[j]] - b.y11.im[q] * x.im[here[j]] + b.y12.re[q] * x.re[there[j]] - b.y12.im[q] * x.im[there[j]];
-            im += b.y11.re[q] * x.im[here[j]] + b.y11.im[q] * x.re[here[j]] + b.y12.re[q] * x.im[there[j]] + b.y12.im[q] * x.re[there[j]];
+            const tr = md.t.re[c * l.n + j], ti = md.t.im[c * l.n + j];
+            const ur = x.re[oh + j] - (md.eRe[j] * x.re[ot + j] - md.eIm[j] * x.im[ot + j]);
+            const ui = x.im[oh + j] - (md.eRe[j] * x.im[ot + j] + md.eIm[j] * x.re[ot + j]);
+            re += tr * ur - ti * ui;
+            im += tr * ui + ti * ur;
           }
           return [re, im];
         },

@@ -1,0 +1,89 @@
+import { describe, expect, it } from 'vitest';
+import { resolveScenarioText, runScenario } from '@skein/core';
+import { timeResponse } from '../index.ts';
+import { spectralRegistry } from './fixtures.ts';
+
+const reg = spectralRegistry();
+
+function maxAbs(a: ArrayLike<number>, b: ArrayLike<number>): number {
+  let m = 0;
+  for (let i = 0; i < a.length; i++) m = Math.max(m, Math.abs(a[i] - b[i]));
+  return m;
+}
+
+describe('timeResponse', () => {
+  it('gives the capacitive load after a matched source', async () => {
+    // REFERENCES.md: Rs = Z0 = 50 ohm, C = 100 pF, vL = 1 - exp(-(t - T)/(Z0 C)) (classic RC charge).
+    const s = resolveScenarioText(`
+skein: 1
+time: { end: 40ns }
+lines:
+  tl: { from: S, to: L, length: 2m, impedance: 50ohm, velocity: 2e8m/s }
+junctions:
+  S:
+    nodes: { s: [tl] }
+    parts:
+      gen: { source: step, between: [s, ref], amplitude: 1, resistance: 50ohm }
+  L:
+    nodes: { l: [tl] }
+    parts:
+      CL: { load: capacitor, between: [l, ref], capacitance: 100pF }
+`, { registry: reg, file: 'cap.yaml' });
+    const T = 10e-9;
+    const times = [T + 1e-9, T + 5e-9, T + 10e-9, T + 25e-9];
+    const r = await timeResponse(s, reg, { outputs: [{ kind: 'voltage', node: 'L.l' }], timesS: times, maxFrequencyHz: 20e9 });
+    const exact = times.map((t) => 1 - Math.exp(-(t - T) / 5e-9));
+    const err = maxAbs(r.series[0].values, exact);
+    console.log('RC', r.method, err, r.series[0].values, exact);
+    expect(err).toBeLessThan(1e-4);
+  });
+
+  it('gives an undistorted, attenuated pulse on Heaviside distortionless line', async () => {
+    // REFERENCES.md (Heaviside): R/L = G/C, Z0 = 50 ohm, v = 2e8 m/s, 1e-3 Np/m; after 1 km the
+    // pulse arrives 5 us later with shape unchanged and peak e^-1. Matched both ends; EMF 2.
+    const s = resolveScenarioText(`
+skein: 1
+time: { end: 6us }
+lines:
+  tl: { from: S, to: L, length: 1000m, inductance: 250nH/m, capacitance: 100pF/m, resistance: 0.05ohm/m, conductance: 2e-5S/m }
+junctions:
+  S:
+    nodes: { s: [tl] }
+    parts:
+      gen: { source: gaussian, between: [s, ref], center: 200ns, width: 20ns, resistance: 50ohm }
+  L:
+    nodes: { l: [tl] }
+    parts:
+      RL: { load: resistor, between: [l, ref], resistance: 50ohm }
+`, { registry: reg, file: 'heaviside.yaml' });
+    const times: number[] = [];
+    for (let t = 5.0e-6; t <= 5.4e-6; t += 5e-9) times.push(t);
+    const r = await timeResponse(s, reg, { outputs: [{ kind: 'voltage', node: 'L.l' }], timesS: times });
+    const exact = times.map((t) => 0.5 * Math.exp(-1) * Math.exp(-0.5 * ((t - 5e-6 - 200e-9) / 20e-9) ** 2));
+    const err = maxAbs(r.series[0].values, exact);
+    console.log('Heaviside', r.method, err / (0.5 * Math.exp(-1)));
+    expect(err).toBeLessThan(1e-4);
+  });
+
+  it('matches the time-domain engine on the Bewley lattice', async () => {
+    const text = `
+skein: 1
+title: Bewley lattice
+time: { end: 8us, step: 5ns }
+lines:
+  tl: { from: S, to: L, length: 200m, impedance: 50ohm, velocity: 2e8m/s }
+junctions:
+  S:
+    nodes: { s: [tl] }
+    parts:
+      gen: { source: edge, between: [s, ref], amplitude: 1, rise: 100ns, resistance: 25ohm }
+  L:
+    nodes: { l: [tl] }
+    parts:
+      RL: { load: resistor, between: [l, ref], resistance: 100ohm }
+`;
+    const s = resolveScenarioText(text, { registry: reg, file: 'bewley.yaml' });
+    const td = await runScenario(s, { registry: reg });
+    console.log(td.traceNames);
+  });
+});

@@ -1,0 +1,276 @@
+/**
+ * Time response of the network from its spectrum: a reference for the transient solver.
+ *
+ * Method (a Fourier series on the j omega axis with the slow parts taken out analytically):
+ *  1. Every source's spectrum W(j omega): its waveform's `laplace` hook at sigma = 0 when present,
+ *     else the exact transform of the piecewise-linear interpolant of value(t) sampled on the
+ *     period (computed by FFT), plus w_inf / (j omega) for its final value w_inf.
+ *  2. The output's spectrum Y(j omega) = sum over sources of H(j omega) W(j omega), solved at
+ *     omega_k = 2 pi k / Tp, k = 1..K, K = ceil(fmax Tp).
+ *  3. The final value y_inf = lim s Y(s) (at omega -> 0) and a smooth step r(t) = 1 - e^-x (1 + x
+ *     + x^2/2 + x^3/6), x = t / tau, tau = Tp / 40, R(s) = 1 / (s (1 + s tau)^4), are taken out:
+ *     Y_rem = Y - y_inf R. The remainder decays in time, so its periodic continuation (period Tp)
+ *     differs from it only by the network's tail beyond Tp; R's spectrum beyond fmax is below
+ *     (tau omega_max)^-4 and r(t) is added back exactly.
+ *  4. y(t) = y_inf r(t) + (1/Tp) [Y_rem(0) + 2 Re sum_k w_k Y_rem(j omega_k) e^{j omega_k t}], with a
+ *     Tukey window w_k (flat to fmax / 2, cosine taper to fmax) against Gibbs ringing.
+ * This is the Fourier-series (FFT) route with the care the numerical Laplace transform (Wilcox
+ * 1978; Wedepohl) takes by a damping shift: the load plugin hook `admittance(omega)` is known only on
+ * the j omega axis, so the shift cannot be applied; the final-value removal and a period of several
+ * observation windows (default 8) keep the wrap-around below the errors the README lists.
+ */
+import { badInput, type PluginRegistry, type ResolvedScenario } from '@skein/core';
+import { assemble, compileNetwork, lineIndex, nodeIndex, solveAssembled, sourceRhs, type SpectralNetwork } from './network.ts';
+import { outputName, type SpectralOutput } from './spectrum.ts';
+
+/** Options of timeResponse. */
+export interface TimeResponseOptions {
+  /** What to sample: voltage, current or part-current outputs. */
+  outputs: readonly SpectralOutput[];
+  /** Sample times [s], >= 0. */
+  timesS: readonly number[];
+  /**
+   * Highest frequency of the series [Hz]. Default: 8 / (shortest feature of the sources), else
+   * 0.5 / time.step of the scenario.
+   */
+  maxFrequencyHz?: number;
+  /** Period Tp as a multiple of the last sample time (default 8, at least 2). */
+  periodFactor?: number;
+  /** Spectral window (default 'tukey': flat to fmax / 2). */
+  window?: 'tukey' | 'hann' | 'none';
+  /** Refuse more frequency points than this (default 400 000). */
+  maxPoints?: number;
+}
+
+/** The samples of timeResponse and the parameters the method chose. */
+export interface TimeResponse {
+  timesS: number[];
+  series: Array<{ name: string; unit: string; values: Float64Array }>;
+  method: { periodS: number; maxFrequencyHz: number; points: number; window: string; tauS: number };
+}
+
+/** In-place iterative radix-2 FFT (forward, e^{-j 2 pi k n / N}); N a power of two. */
+export function fft(re: Float64Array, im: Float64Array): void {
+  const n = re.length;
+  for (let i = 1, j = 0; i < n; i++) {
+    let bit = n >> 1;
+    for (; j & bit; bit >>= 1) j ^= bit;
+    j ^= bit;
+    if (i < j) {
+      let t = re[i]; re[i] = re[j]; re[j] = t;
+      t = im[i]; im[i] = im[j]; im[j] = t;
+    }
+  }
+  for (let len = 2; len <= n; len <<= 1) {
+    const ang = (-2 * Math.PI) / len;
+    for (let i = 0; i < n; i += len) {
+      for (let k = 0; k < len / 2; k++) {
+        const wr = Math.cos(ang * k), wi = Math.sin(ang * k);
+        const a = i + k, b = i + k + len / 2;
+        const xr = re[b] * wr - im[b] * wi;
+        const xi = re[b] * wi + im[b] * wr;
+        re[b] = re[a] - xr; im[b] = im[a] - xi;
+        re[a] += xr; im[a] += xi;
+      }
+    }
+  }
+}
+
+/** Spectrum of one waveform on the grid omega_k = k dw (k = 1..K) and at omegaEps. */
+interface WaveSpectrum {
+  re: Float64Array; // index k = 1..K (0 unused)
+  im: Float64Array;
+  epsRe: number;
+  epsIm: number;
+}
+
+function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS: number, omegaEps: number): WaveSpectrum {
+  const inst = net.waveforms[w];
+  const dw = (2 * Math.PI) / periodS;
+  const re = new Float64Array(K + 1);
+  const im = new Float64Array(K + 1);
+  const out = new Float64Array(2);
+  if (typeof inst.laplace === 'function') {
+    for (let k = 1; k <= K; k++) {
+      inst.laplace(0, k * dw, out);
+      re[k] = out[0];
+      im[k] = out[1];
+    }
+    inst.laplace(0, omegaEps, out);
+    return { re, im, epsRe: out[0], epsIm: out[1] };
+  }
+  let M = 4096;
+  while (M < 16 * K) M *= 2;
+  const dt = periodS / M;
+  const wInf = inst.value(inst.settledAfterS !== undefined && inst.settledAfterS < periodS ? inst.settledAfterS * 1.5 + dt : periodS);
+  const dr = new Float64Array(M);
+  const di = new Float64Array(M);
+  for (let n = 0; n < M; n++) dr[n] = inst.value(n * dt) - wInf;
+  const d0 = dr[0];
+  // Piecewise-linear interpolant: full hats at n >= 1, a half hat at t = 0.
+  const halfHat = (om: number): [number, number] => {
+    // (1 - (1 - e^{-j om dt}) / (j om dt)) / (j om)
+    const x = om * dt;
+    const er = 1 - Math.cos(x), ei = Math.sin(x); // 1 - e^{-jx} = (1 - cos x) + j sin x
+    // (er + j ei) / (j x) = (ei - j er) / x
+    const qr = 1 - ei / x, qi = er / x;
+    // (qr + j qi) / (j om) = (qi - j qr) / om
+    return [qi / om, -qr / om];
+  };
+  const direct = (om: number): [number, number] => {
+    let sr = 0, si = 0;
+    for (let n = 1; n < M; n++) { sr += dr[n] * Math.cos(om * n * dt); si -= dr[n] * Math.sin(om * n * dt); }
+    const s2 = Math.sin((om * dt) / 2) / ((om * dt) / 2);
+    const [hr, hi] = halfHat(om);
+    return [dt * s2 * s2 * sr + d0 * hr, dt * s2 * s2 * si + d0 * hi + -wInf / om];
+  };
+  const [er, ei] = direct(omegaEps);
+  dr[0] = 0;
+  fft(dr, di);
+  for (let k = 1; k <= K; k++) {
+    const om = k * dw;
+    const x = (om * dt) / 2;
+    const s2 = (Math.sin(x) / x) ** 2;
+    const [hr, hi] = halfHat(om);
+    re[k] = dt * s2 * dr[k] + d0 * hr;
+    im[k] = dt * s2 * di[k] + d0 * hi - wInf / om;
+  }
+  return { re, im, epsRe: er, epsIm: ei };
+}
+
+/**
+ * Samples the network's response to its own sources at the given times, computed from the spectrum.
+ * @param scenario resolved scenario; @param registry plugins (loads need `admittance`).
+ * @param options outputs, times [s], maxFrequencyHz, periodFactor, window.
+ * @returns samples per output and the method's parameters.
+ * @throws InputError E_SPECTRAL_TIME for bad times or settings, E_SPECTRAL_OUTPUT for an output kind
+ *   without a time response; SkeinError E_SPECTRAL_HOOK_MISSING, E_SPECTRAL_SINGULAR.
+ * @example await timeResponse(s, reg, { outputs: [{ kind: 'voltage', node: 'L.l' }], timesS: [1.5e-6] })
+ */
+export async function timeResponse(scenario: ResolvedScenario, registry: PluginRegistry, options: TimeResponseOptions): Promise<TimeResponse> {
+  const net = await compileNetwork(scenario, registry);
+  const times = [...options.timesS];
+  if (times.length === 0) throw badInput(['timesS'], 'must list at least one time', times, 'E_SPECTRAL_TIME');
+  times.forEach((t, i) => { if (!(t >= 0 && Number.isFinite(t))) throw badInput(['timesS', i], 'must be a time of at least 0 s', t, 'E_SPECTRAL_TIME'); });
+  const tMax = Math.max(...times, 0) || scenario.time.endS;
+  const factor = options.periodFactor ?? 8;
+  if (!(factor >= 2)) throw badInput(['periodFactor'], 'must be at least 2', factor, 'E_SPECTRAL_TIME');
+  const periodS = factor * tMax;
+  let fmax = options.maxFrequencyHz;
+  if (fmax === undefined) {
+    let feature = Infinity;
+    for (const w of net.waveforms) if (w.shortestFeatureS !== undefined && w.shortestFeatureS > 0) feature = Math.min(feature, w.shortestFeatureS);
+    if (Number.isFinite(feature)) fmax = 8 / feature;
+    else if (scenario.time.stepS !== undefined) fmax = 0.5 / scenario.time.stepS;
+    else throw badInput(['maxFrequencyHz'], 'must be given: the sources declare no shortest feature and the scenario sets no time.step', undefined, 'E_SPECTRAL_TIME');
+  }
+  if (!(fmax > 0 && Number.isFinite(fmax))) throw badInput(['maxFrequencyHz'], 'must be a frequency above 0 Hz', fmax, 'E_SPECTRAL_TIME');
+  const K = Math.ceil(fmax * periodS);
+  const maxPoints = options.maxPoints ?? 400_000;
+  if (K > maxPoints) throw badInput(['maxFrequencyHz'], `gives ${K} frequency points over the period ${periodS} s, more than ${maxPoints}; lower it or the last sample time`, fmax, 'E_SPECTRAL_TIME');
+  const windowKind = options.window ?? 'tukey';
+  const dw = (2 * Math.PI) / periodS;
+  const omegaEps = dw * 1e-4;
+  const tau = periodS / 40;
+
+  // Readers for each output: value at the solution x of one frequency.
+  const outs = options.outputs.map((o, oi) => planTimeOutput(net, o, oi));
+  const nOut = outs.length;
+  const spectra = net.waveforms.map((_, w) => waveSpectrum(net, w, K, periodS, omegaEps));
+  const noRemoved = new Array<boolean>(net.parts.length).fill(false);
+  const solveAt = (omega: number, k: number): { re: number[]; im: number[] } => {
+    const phasors = net.parts.map((np) => {
+      if (np.waveform === undefined) return null;
+      const s = spectra[np.waveform];
+      return k < 0 ? { re: s.epsRe, im: s.epsIm } : { re: s.re[k], im: s.im[k] };
+    });
+    const asm = assemble(net, omega, noRemoved);
+    const x = solveAssembled(asm, sourceRhs(net, [phasors]));
+    const re: number[] = [];
+    const im: number[] = [];
+    for (const r of outs) {
+      const [a, b] = r(asm, x, phasors);
+      re.push(a);
+      im.push(b);
+    }
+    return { re, im };
+  };
+  // R(j omega) = 1 / (j omega (1 + j omega tau)^4)
+  const rOf = (om: number): [number, number] => {
+    let pr = 1, pi = 0;
+    for (let i = 0; i < 4; i++) { const nr = pr - pi * om * tau; pi = pi + pr * om * tau; pr = nr; }
+    // j om (pr + j pi) = -om pi + j om pr
+    const dr = -om * pi, di = om * pr;
+    const d = dr * dr + di * di;
+    return [dr / d, -di / d];
+  };
+  const eps = solveAt(omegaEps, -1);
+  const yInf = eps.im.map((im) => -omegaEps * im); // Re(j w Y) = -w Im Y
+  const [r0r] = rOf(omegaEps);
+  const yRem0 = eps.re.map((re, i) => re - yInf[i] * r0r);
+  const cRe = new Float64Array(nOut * (K + 1));
+  const cIm = new Float64Array(nOut * (K + 1));
+  for (let k = 1; k <= K; k++) {
+    const om = k * dw;
+    const y = solveAt(om, k);
+    const [rr, ri] = rOf(om);
+    const u = k / K;
+    const win = windowKind === 'none' ? 1 : windowKind === 'hann' ? 0.5 * (1 + Math.cos(Math.PI * u)) : u <= 0.5 ? 1 : 0.5 * (1 + Math.cos(Math.PI * (2 * u - 1)));
+    for (let i = 0; i < nOut; i++) {
+      cRe[i * (K + 1) + k] = win * (y.re[i] - yInf[i] * rr);
+      cIm[i * (K + 1) + k] = win * (y.im[i] - yInf[i] * ri);
+    }
+  }
+  const series = options.outputs.map((o, i) => {
+    const values = new Float64Array(times.length);
+    times.forEach((t, q) => {
+      // sum_k c_k e^{j k dw t} by a rotation recurrence, re-anchored every 64 terms.
+      let s = 0;
+      const cr = Math.cos(dw * t), ci = Math.sin(dw * t);
+      let er = 1, ei = 0;
+      for (let k = 1; k <= K; k++) {
+        if ((k & 63) === 0) { er = Math.cos(k * dw * t); ei = Math.sin(k * dw * t); } else {
+          const nr = er * cr - ei * ci; ei = er * ci + ei * cr; er = nr;
+        }
+        s += cRe[i * (K + 1) + k] * er - cIm[i * (K + 1) + k] * ei;
+      }
+      const x = t / tau;
+      const r = -Math.expm1(-x) - Math.exp(-x) * (x + (x * x) / 2 + (x * x * x) / 6);
+      values[q] = yInf[i] * r + (yRem0[i] + 2 * s) / periodS;
+    });
+    return { name: outputName(o), unit: o.kind === 'voltage' ? 'V' : 'A', values };
+  });
+  return { timesS: times, series, method: { periodS, maxFrequencyHz: fmax, points: K + 1, window: windowKind, tauS: tau } };
+}
+
+type Reader = (asm: ReturnType<typeof assemble>, x: { re: Float64Array; im: Float64Array }, phasors: Array<{ re: number; im: number } | null>) => [number, number];
+
+function planTimeOutput(net: SpectralNetwork, o: SpectralOutput, oi: number): Reader {
+  const path = ['outputs', oi];
+  if (o.kind === 'voltage') {
+    const n = nodeIndex(net, o.node, [...path, 'node']);
+    return (_a, x) => [x.re[n], x.im[n]];
+  }
+  if (o.kind === 'current') {
+    const li = lineIndex(net, o.line, [...path, 'line']);
+    const l = net.lines[li];
+    const c = o.conductor === undefined ? 0 : l.line.conductors.indexOf(o.conductor);
+    if (c < 0 || (o.conductor === undefined && l.n !== 1)) throw badInput([...path, 'conductor'], `must name a conductor of line ${l.line.id} (${l.line.conductors.join(', ')})`, o.conductor, 'E_SPECTRAL_OUTPUT');
+    const here0 = o.end === 'from';
+    return (a, x) => {
+          const md = a.modes[li];
+          let re = 0, im = 0;
+          // Into the line: T (a - E b) at z = 0, T (b - E a) at z = l.
+          const oh = here0 ? l.offset : l.offset + l.n, ot = here0 ? l.offset + l.n : l.offset;
+          for (let j = 0; j < l.n; j++) {
+            const tr = md.t.re[c * l.n + j], ti = md.t.im[c * l.n + j];
+            const ur = x.re[oh + j] - (md.eRe[j] * x.re[ot + j] - md.eIm[j] * x.im[ot + j]);
+            const ui = x.im[oh + j] - (md.eRe[j] * x.im[ot + j] + md.eIm[j] * x.re[ot + j]);
+            re += tr * ur - ti * ui;
+            im += tr * ui + ti * ur;
+          }
+          return [re, im];
+    };
+  }
+  throw badInput([...path, 'kind'], 'must be voltage or current for a time response', o.kind, 'E_SPECTRAL_OUTPUT');
+}
