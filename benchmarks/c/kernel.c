@@ -1,13 +1,14 @@
 /*
  * C twin of skein's junction stepping kernels, for the benchmark baseline.
  *
- * The six loops below are line-for-line translations of
+ * The seven loops below are line-for-line translations of
  *   packages/core/src/kernel/junctionStepScalar.ts         (one conductor)
  *   packages/core/src/kernel/junctionStep.ts               (general, any conductors)
  *   packages/core/src/kernel/junctionStepScalarBlocked.ts  (one conductor, nB steps per visit)
  *   packages/core/src/kernel/junctionStepBlocked.ts        (general, nB steps per visit)
  *   packages/core/src/kernel/junctionStepOneNodeBlocked.ts  (one conductor, one node, locals)
  *   packages/core/src/kernel/junctionStepFourNodeBlocked.ts (four nodes, locals, unrolled)
+ *   packages/core/src/kernel/junctionStepOneNodeUnrolled.ts (one node, ports unrolled for 1..4)
  * over the same flat arrays, read from a file the TypeScript side writes (benchmarks/src/cTwin.ts
  * documents the format). Same operations in the same order; gcc may contract a*b+c into a fused
  * multiply-add (-ffp-contract=fast is GCC's default), so results agree to rounding, not bit for bit.
@@ -17,7 +18,7 @@
  *                         run the network in IN: WARM warm-up steps, then REPS times: state zeroed,
  *                         STEPS timed steps (the shortest time is reported)
  *                         with NB steps per junction visit (1: reference loop), FAST = 1 for the
- *                         one-node / four-node fast path (nB steps per visit, nB >= 1); write seconds,
+ *                         unrolled one-node / four-node fast path (nB steps per visit, nB >= 1); write seconds,
  *                         checksum, final wave and x to OUT
  *   kernel stream N REPS  copy and triad over N doubles, print bytes/s as JSON
  */
@@ -218,7 +219,9 @@ static int junction_step_blocked(int j0, int j1, int n0, int nB,
   return (j1 - j0) * nB;
 }
 
-/* junctionStepOneNodeBlocked.ts: one node, no constraint row (R = 1). */
+/* junctionStepOneNodeBlocked.ts: one node, no constraint row (R = 1). Kept as the twin of that
+   file; the benchmark's fast path for one conductor is the unrolled loop below. */
+__attribute__((unused))
 static int junction_step_one_node_blocked(int j0, int j1, int n0, int nB,
     const i32 *jPort, const i32 *jX, const i32 *jK, const i32 *jEx,
     const i32 *pIn, const i32 *pInMask, const i32 *pK, const double *pF, const i32 *pOut, const i32 *pOutMask,
@@ -323,6 +326,175 @@ static int junction_step_four_node_blocked(int j0, int j1, int n0, int nB,
   return (j1 - j0) * nB;
 }
 
+/* junctionStepOneNodeUnrolled.ts: one node, port loop unrolled for 1..4 line ends. */
+static int junction_step_one_node_unrolled(int j0, int j1, int n0, int nB,
+    const i32 *jPort, const i32 *jX, const i32 *jK, const i32 *jEx,
+    const i32 *pIn, const i32 *pInMask, const i32 *pK, const double *pF, const i32 *pOut, const i32 *pOutMask,
+    const double *pY2,
+    const i32 *exRow, const i32 *exSlot, const double *exCoef, const double *slot, int slotStride, int slotOff,
+    const double *mat, double *wave, double *inc, double *x, int xStride, int xOff) {
+  (void)exRow;
+  const int n1 = n0 + nB;
+  for (int j = j0; j < j1; j++) {
+    const int p0 = jPort[j];
+    const int p1 = jPort[j + 1];
+    const int M = p1 - p0;
+    const int e0 = jEx[j];
+    const int e1 = jEx[j + 1];
+    const double K00 = mat[jK[j]];
+    if (M == 1) {
+      const int bi0 = pIn[p0 + 0], mi0 = pInMask[p0 + 0], k0 = pK[p0 + 0], bo0 = pOut[p0 + 0], mo0 = pOutMask[p0 + 0];
+      const double f0 = pF[p0 + 0], g0 = 1 - f0, y0 = pY2[p0 + 0];
+      int sRow = slotOff;
+      int xi = xOff + jX[j];
+      double w0 = 0;
+      for (int n = n0; n < n1; n++) {
+        const int i0 = n - k0;
+        w0 = g0 * wave[bi0 + (i0 & mi0)] + f0 * wave[bi0 + ((i0 - 1) & mi0)];
+        double r = 0;
+        r += y0 * w0;
+        for (int e = e0; e < e1; e++) r += exCoef[e] * slot[sRow + exSlot[e]];
+        const double xn = 0 + K00 * r;
+        x[xi] = xn;
+        wave[bo0 + (n & mo0)] = xn - w0;
+        sRow += slotStride;
+        xi += xStride;
+      }
+      if (n1 > n0) {
+        inc[p0 + 0] = w0;
+      }
+    } else if (M == 2) {
+      const int bi0 = pIn[p0 + 0], mi0 = pInMask[p0 + 0], k0 = pK[p0 + 0], bo0 = pOut[p0 + 0], mo0 = pOutMask[p0 + 0];
+      const double f0 = pF[p0 + 0], g0 = 1 - f0, y0 = pY2[p0 + 0];
+      const int bi1 = pIn[p0 + 1], mi1 = pInMask[p0 + 1], k1 = pK[p0 + 1], bo1 = pOut[p0 + 1], mo1 = pOutMask[p0 + 1];
+      const double f1 = pF[p0 + 1], g1 = 1 - f1, y1 = pY2[p0 + 1];
+      int sRow = slotOff;
+      int xi = xOff + jX[j];
+      double w0 = 0, w1 = 0;
+      for (int n = n0; n < n1; n++) {
+        const int i0 = n - k0;
+        w0 = g0 * wave[bi0 + (i0 & mi0)] + f0 * wave[bi0 + ((i0 - 1) & mi0)];
+        const int i1 = n - k1;
+        w1 = g1 * wave[bi1 + (i1 & mi1)] + f1 * wave[bi1 + ((i1 - 1) & mi1)];
+        double r = 0;
+        r += y0 * w0;
+        r += y1 * w1;
+        for (int e = e0; e < e1; e++) r += exCoef[e] * slot[sRow + exSlot[e]];
+        const double xn = 0 + K00 * r;
+        x[xi] = xn;
+        wave[bo0 + (n & mo0)] = xn - w0;
+        wave[bo1 + (n & mo1)] = xn - w1;
+        sRow += slotStride;
+        xi += xStride;
+      }
+      if (n1 > n0) {
+        inc[p0 + 0] = w0;
+        inc[p0 + 1] = w1;
+      }
+    } else if (M == 3) {
+      const int bi0 = pIn[p0 + 0], mi0 = pInMask[p0 + 0], k0 = pK[p0 + 0], bo0 = pOut[p0 + 0], mo0 = pOutMask[p0 + 0];
+      const double f0 = pF[p0 + 0], g0 = 1 - f0, y0 = pY2[p0 + 0];
+      const int bi1 = pIn[p0 + 1], mi1 = pInMask[p0 + 1], k1 = pK[p0 + 1], bo1 = pOut[p0 + 1], mo1 = pOutMask[p0 + 1];
+      const double f1 = pF[p0 + 1], g1 = 1 - f1, y1 = pY2[p0 + 1];
+      const int bi2 = pIn[p0 + 2], mi2 = pInMask[p0 + 2], k2 = pK[p0 + 2], bo2 = pOut[p0 + 2], mo2 = pOutMask[p0 + 2];
+      const double f2 = pF[p0 + 2], g2 = 1 - f2, y2 = pY2[p0 + 2];
+      int sRow = slotOff;
+      int xi = xOff + jX[j];
+      double w0 = 0, w1 = 0, w2 = 0;
+      for (int n = n0; n < n1; n++) {
+        const int i0 = n - k0;
+        w0 = g0 * wave[bi0 + (i0 & mi0)] + f0 * wave[bi0 + ((i0 - 1) & mi0)];
+        const int i1 = n - k1;
+        w1 = g1 * wave[bi1 + (i1 & mi1)] + f1 * wave[bi1 + ((i1 - 1) & mi1)];
+        const int i2 = n - k2;
+        w2 = g2 * wave[bi2 + (i2 & mi2)] + f2 * wave[bi2 + ((i2 - 1) & mi2)];
+        double r = 0;
+        r += y0 * w0;
+        r += y1 * w1;
+        r += y2 * w2;
+        for (int e = e0; e < e1; e++) r += exCoef[e] * slot[sRow + exSlot[e]];
+        const double xn = 0 + K00 * r;
+        x[xi] = xn;
+        wave[bo0 + (n & mo0)] = xn - w0;
+        wave[bo1 + (n & mo1)] = xn - w1;
+        wave[bo2 + (n & mo2)] = xn - w2;
+        sRow += slotStride;
+        xi += xStride;
+      }
+      if (n1 > n0) {
+        inc[p0 + 0] = w0;
+        inc[p0 + 1] = w1;
+        inc[p0 + 2] = w2;
+      }
+    } else if (M == 4) {
+      const int bi0 = pIn[p0 + 0], mi0 = pInMask[p0 + 0], k0 = pK[p0 + 0], bo0 = pOut[p0 + 0], mo0 = pOutMask[p0 + 0];
+      const double f0 = pF[p0 + 0], g0 = 1 - f0, y0 = pY2[p0 + 0];
+      const int bi1 = pIn[p0 + 1], mi1 = pInMask[p0 + 1], k1 = pK[p0 + 1], bo1 = pOut[p0 + 1], mo1 = pOutMask[p0 + 1];
+      const double f1 = pF[p0 + 1], g1 = 1 - f1, y1 = pY2[p0 + 1];
+      const int bi2 = pIn[p0 + 2], mi2 = pInMask[p0 + 2], k2 = pK[p0 + 2], bo2 = pOut[p0 + 2], mo2 = pOutMask[p0 + 2];
+      const double f2 = pF[p0 + 2], g2 = 1 - f2, y2 = pY2[p0 + 2];
+      const int bi3 = pIn[p0 + 3], mi3 = pInMask[p0 + 3], k3 = pK[p0 + 3], bo3 = pOut[p0 + 3], mo3 = pOutMask[p0 + 3];
+      const double f3 = pF[p0 + 3], g3 = 1 - f3, y3 = pY2[p0 + 3];
+      int sRow = slotOff;
+      int xi = xOff + jX[j];
+      double w0 = 0, w1 = 0, w2 = 0, w3 = 0;
+      for (int n = n0; n < n1; n++) {
+        const int i0 = n - k0;
+        w0 = g0 * wave[bi0 + (i0 & mi0)] + f0 * wave[bi0 + ((i0 - 1) & mi0)];
+        const int i1 = n - k1;
+        w1 = g1 * wave[bi1 + (i1 & mi1)] + f1 * wave[bi1 + ((i1 - 1) & mi1)];
+        const int i2 = n - k2;
+        w2 = g2 * wave[bi2 + (i2 & mi2)] + f2 * wave[bi2 + ((i2 - 1) & mi2)];
+        const int i3 = n - k3;
+        w3 = g3 * wave[bi3 + (i3 & mi3)] + f3 * wave[bi3 + ((i3 - 1) & mi3)];
+        double r = 0;
+        r += y0 * w0;
+        r += y1 * w1;
+        r += y2 * w2;
+        r += y3 * w3;
+        for (int e = e0; e < e1; e++) r += exCoef[e] * slot[sRow + exSlot[e]];
+        const double xn = 0 + K00 * r;
+        x[xi] = xn;
+        wave[bo0 + (n & mo0)] = xn - w0;
+        wave[bo1 + (n & mo1)] = xn - w1;
+        wave[bo2 + (n & mo2)] = xn - w2;
+        wave[bo3 + (n & mo3)] = xn - w3;
+        sRow += slotStride;
+        xi += xStride;
+      }
+      if (n1 > n0) {
+        inc[p0 + 0] = w0;
+        inc[p0 + 1] = w1;
+        inc[p0 + 2] = w2;
+        inc[p0 + 3] = w3;
+      }
+    } else {
+      int sRow = slotOff;
+      int xi = xOff + jX[j];
+      for (int n = n0; n < n1; n++) {
+        double r = 0;
+        for (int q = p0; q < p1; q++) {
+          const int mask = pInMask[q];
+          const int base = pIn[q];
+          const int i1 = n - pK[q];
+          const double f = pF[q];
+          const double w = (1 - f) * wave[base + (i1 & mask)] + f * wave[base + ((i1 - 1) & mask)];
+          inc[q] = w;
+          r += pY2[q] * w;
+        }
+        for (int e = e0; e < e1; e++) r += exCoef[e] * slot[sRow + exSlot[e]];
+        const double xn = 0 + K00 * r;
+        x[xi] = xn;
+        for (int q = p0; q < p1; q++) wave[pOut[q] + (n & pOutMask[q])] = xn - inc[q];
+        sRow += slotStride;
+        xi += xStride;
+      }
+    }
+
+  }
+  return (j1 - j0) * nB;
+}
+
 /* ---- file input ---- */
 
 enum { A_jPort, A_jX, A_jN, A_jB, A_jK, A_jA, A_jEx, A_pIn, A_pInMask, A_pK, A_pF, A_pOut, A_pOutMask, A_pNode, A_pY2,
@@ -381,7 +553,7 @@ static int run_case(const char *in, const char *out, int nSteps, int nB, int nWa
     if (fast) {
       for (int n0 = 0; n0 < steps; n0 += nB) {
         const int b = steps - n0 < nB ? steps - n0 : nB;
-        if (kind == 0) junction_step_one_node_blocked(0, nJ, n0, b, jPort, jX, jK, jEx, pIn, pInMask, pK, pF, pOut, pOutMask, pY2, exRow, exSlot, exCoef, slotRows, nSlot, 0, mat, wave, inc, x, 0, 0);
+        if (kind == 0) junction_step_one_node_unrolled(0, nJ, n0, b, jPort, jX, jK, jEx, pIn, pInMask, pK, pF, pOut, pOutMask, pY2, exRow, exSlot, exCoef, slotRows, nSlot, 0, mat, wave, inc, x, 0, 0);
         else junction_step_four_node_blocked(0, nJ, n0, b, jPort, jX, jB, jK, jA, jEx, pIn, pInMask, pK, pF, pOut, pOutMask, exRow, exSlot, exCoef, slotRows, nSlot, 0, mat, wave, inc, x, 0, 0);
       }
     } else if (nB <= 1) {

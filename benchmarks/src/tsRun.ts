@@ -5,7 +5,7 @@
 import { junctionStep } from '../../packages/core/src/kernel/junctionStep.ts';
 import { junctionStepBlocked } from '../../packages/core/src/kernel/junctionStepBlocked.ts';
 import { junctionStepFourNodeBlocked } from '../../packages/core/src/kernel/junctionStepFourNodeBlocked.ts';
-import { junctionStepOneNodeBlocked } from '../../packages/core/src/kernel/junctionStepOneNodeBlocked.ts';
+import { junctionStepOneNodeUnrolled } from '../../packages/core/src/kernel/junctionStepOneNodeUnrolled.ts';
 import { junctionStepScalar } from '../../packages/core/src/kernel/junctionStepScalar.ts';
 import { junctionStepScalarBlocked } from '../../packages/core/src/kernel/junctionStepScalarBlocked.ts';
 import type { KernelRun } from './cTwin.ts';
@@ -14,7 +14,7 @@ import type { KernelNet } from './generate.ts';
 /**
  * Advances a network nSteps steps from the current state with the reference (nB = 1) or the
  * temporally blocked kernel (nB > 1 steps per junction visit; needs nB <= net.kMin and
- * nB <= net.maxBlockSteps). `fast` uses the one-node (kind 0) or four-node (kind 1) fast path
+ * nB <= net.maxBlockSteps). `fast` uses the unrolled one-node (kind 0) or four-node (kind 1) fast path
  * with nB steps per visit (nB = 1 allowed); generated networks have one node per conductor.
  * @param kind 0: one-conductor kernel, 1: general kernel.
  * @throws Error when nB is larger than the network allows.
@@ -28,7 +28,7 @@ export function stepNet(net: KernelNet, kind: 0 | 1, nSteps: number, nB: number,
     for (let n0 = 0; n0 < nSteps; n0 += nB) {
       const b = Math.min(nB, nSteps - n0);
       if (kind === 0) {
-        junctionStepOneNodeBlocked(0, nJ, n0, b, t.jPort, t.jX, t.jK, t.jEx, t.pIn, t.pInMask, t.pK, t.pF, t.pOut, t.pOutMask,
+        junctionStepOneNodeUnrolled(0, nJ, n0, b, t.jPort, t.jX, t.jK, t.jEx, t.pIn, t.pInMask, t.pK, t.pF, t.pOut, t.pOutMask,
           t.pY2, t.exRow, t.exSlot, t.exCoef, slotRows, nSlot, 0, t.mat, t.wave, t.inc, t.x, 0, 0);
       } else {
         junctionStepFourNodeBlocked(0, nJ, n0, b, t.jPort, t.jX, t.jB, t.jK, t.jA, t.jEx, t.pIn, t.pInMask, t.pK, t.pF,

@@ -127,3 +127,37 @@ junctions:
     parts:
       r3: { load: test-resistor, between: [qs, ref], resistance: 47ohm }
 `;
+
+/** One-conductor hubs of four and five line ends (and leaves of one), delays 6..11 steps. */
+export const hubScenario = `
+skein: 1
+time: { end: 400ns, step: 1ns }
+lines:
+  a: { from: S, to: H4, length: 1.3m, impedance: 50ohm, velocity: 2e8m/s }
+  b: { from: H4, to: L1, length: 1.7m, impedance: 75ohm, velocity: 2e8m/s }
+  c: { from: H4, to: L2, length: 2.05m, impedance: 120ohm, velocity: 2e8m/s }
+  d: { from: H4, to: H5, length: 1.2m, impedance: 90ohm, velocity: 2e8m/s }
+  e: { from: H5, to: L3, length: 1.9m, impedance: 60ohm, velocity: 2e8m/s }
+  f: { from: H5, to: L4, length: 2.2m, impedance: 150ohm, velocity: 2e8m/s }
+  g: { from: H5, to: L5, length: 1.45m, impedance: 40ohm, velocity: 2e8m/s }
+  h: { from: H5, to: L6, length: 1.6m, impedance: 100ohm, velocity: 2e8m/s }
+junctions:
+  S:
+    nodes: { s: [a] }
+    parts:
+      g1: { source: test-step, between: [s, ref], amplitude: 1, delay: 3ns, resistance: 20ohm }
+  H4: { nodes: { h: [a, b, c, d] } }
+  H5:
+    nodes: { h: [d, e, f, g, h] }
+    parts:
+      rh: { load: test-resistor, between: [h, ref], resistance: 200ohm }
+  L1: { nodes: { l: [b] }, parts: { r1: { load: test-resistor, between: [l, ref], resistance: 33ohm } } }
+  L2: { nodes: { l: [c] } }
+  L3: { nodes: { l: [e] }, parts: { r3: { load: test-resistor, between: [l, ref], resistance: 10ohm } } }
+  L4: { nodes: { l: [f] } }
+  L5:
+    nodes: { l: [g] }
+    parts:
+      g5: { source: test-step, between: [l, ref], amplitude: 1, delay: 3ns, resistance: 20ohm }
+  L6: { nodes: { l: [h] }, parts: { r6: { load: test-resistor, between: [l, ref], resistance: 470ohm } } }
+`;

@@ -3,8 +3,9 @@ import type { Plan } from '../../compile/compile.ts';
 import { junctionStepBlocked } from '../junctionStepBlocked.ts';
 import { junctionStepFourNodeBlocked } from '../junctionStepFourNodeBlocked.ts';
 import { junctionStepOneNodeBlocked } from '../junctionStepOneNodeBlocked.ts';
+import { junctionStepOneNodeUnrolled } from '../junctionStepOneNodeUnrolled.ts';
 import { junctionStepScalarBlocked } from '../junctionStepScalarBlocked.ts';
-import { compileWide, fourScenario, scalarScenario } from './blockedFixtures.ts';
+import { compileWide, fourScenario, hubScenario, scalarScenario } from './blockedFixtures.ts';
 
 // The fast paths keep sums in locals but perform the same operations in the same order as the
 // blocked reference loops (which are themselves bit-identical to the step-by-step kernels), so
@@ -40,6 +41,10 @@ const oneNode: Stepper = (p, n0, b, slot, xs, xOff) => {
   expect(junctionStepOneNodeBlocked(0, p.nJunctions, n0, b, p.jPort, p.jX, p.jK, p.jEx, p.pIn, p.pInMask, p.pK, p.pF, p.pOut, p.pOutMask,
     p.pY2, p.exRow, p.exSlot, p.exCoef, slot, 3, 2, p.mat, p.wave, p.inc, xs, p.x.length, xOff)).toBe(p.nJunctions * b);
 };
+const unrolled: Stepper = (p, n0, b, slot, xs, xOff) => {
+  expect(junctionStepOneNodeUnrolled(0, p.nJunctions, n0, b, p.jPort, p.jX, p.jK, p.jEx, p.pIn, p.pInMask, p.pK, p.pF, p.pOut, p.pOutMask,
+    p.pY2, p.exRow, p.exSlot, p.exCoef, slot, 3, 2, p.mat, p.wave, p.inc, xs, p.x.length, xOff)).toBe(p.nJunctions * b);
+};
 const generalRef: Stepper = (p, n0, b, slot, xs, xOff) => {
   junctionStepBlocked(0, p.nJunctions, n0, b, p.jPort, p.jX, p.jN, p.jB, p.jK, p.jA, p.jEx, p.pIn, p.pInMask, p.pK, p.pF,
     p.pOut, p.pOutMask, p.exRow, p.exSlot, p.exCoef, slot, 3, 2, p.mat, p.wave, p.rhs, p.inc, xs, p.x.length, xOff);
@@ -59,6 +64,28 @@ describe('junctionStepOneNodeBlocked', () => {
       expect(Math.max(...xa.map(Math.abs))).toBeGreaterThan(0.05);
       expect(bitsEqual(xb, xa)).toBe(true);
       expect(bitsEqual(b.plan.wave, a.plan.wave)).toBe(true);
+    }
+  });
+});
+
+describe('junctionStepOneNodeUnrolled', () => {
+  it('gives bit-identical results to junctionStepScalarBlocked for junctions of one to five line ends', async () => {
+    for (const text of [scalarScenario, hubScenario]) {
+      const probe = await compileWide(text, 6);
+      const degrees = new Set(Array.from({ length: probe.plan.nJunctions }, (_, j) => probe.plan.jPort[j + 1] - probe.plan.jPort[j]));
+      expect(probe.kMin).toBeGreaterThanOrEqual(6);
+      for (const nB of [1, 4, 6]) {
+        const a = await compileWide(text, 6);
+        const b = await compileWide(text, 6);
+        const xa = run(a.plan, 300, nB, scalarRef);
+        const xb = run(b.plan, 300, nB, unrolled);
+        expect(Math.max(...xa.map(Math.abs))).toBeGreaterThan(0.05);
+        expect(bitsEqual(xb, xa)).toBe(true);
+        expect(bitsEqual(b.plan.wave, a.plan.wave)).toBe(true);
+        // inc holds the incident waves of the last step, as the reference leaves it.
+        expect(bitsEqual(b.plan.inc, a.plan.inc)).toBe(true);
+      }
+      if (text === hubScenario) expect([...degrees].sort()).toEqual([1, 4, 5]);
     }
   });
 });
