@@ -168,6 +168,11 @@ export interface CompileOptions {
   registry: PluginRegistry;
   /** Collects warnings; default: into plan.warnings only. */
   onWarning?: (message: string) => void;
+  /**
+   * Extra ring-buffer history in steps (default 0): a partitioned run replays probes one block
+   * behind the workers and needs the waves of two more blocks.
+   */
+  ringSlackSteps?: number;
 }
 
 const MIN_DELAY_STEPS = 1;
@@ -297,7 +302,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       const q = lineModeOff[i] + m;
       modeK[q] = k;
       modeF[q] = f;
-      const len = nextPow2(k + 2);
+      const len = nextPow2(k + 2 + (options.ringSlackSteps ?? 0));
       ringMask[q] = len - 1;
       fwdOff[q] = waveLen;
       waveLen += len;

@@ -13,11 +13,33 @@ import type {
 import type { PluginRegistry } from '../plugins/registry.ts';
 import { accumulateLedger, createLedger, refreshLedgerView, type Ledger } from './ledger.ts';
 import { acceptNonlinear, phaseNonlinear } from './newton.ts';
-import { kernelRuns, phaseJunctions, phaseParts, phaseSources, phaseSwitches } from './step.ts';
+import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSources, phaseSwitches } from './step.ts';
+
+/**
+ * What advances the solver. The default steps everything on this thread; a partitioned run steps
+ * on workers and replays each step here. `observe(step, partsReady)` runs the parts (unless the
+ * driver already filled them), ledger and probe phases of one step.
+ */
+export interface StepDriver {
+  run(plan: Plan, io: DriverIo): Promise<void>;
+  /** Finish results of loads that were stepped elsewhere (they replace this thread's loads' results). */
+  loadResults?(): { outputs: Record<string, StructuredOutput>; warnings: string[] };
+}
+
+/** What a driver gets from the run. */
+export interface DriverIo {
+  observe(step: number, partsReady: boolean): void;
+  timing: Record<string, number>;
+  partV: Float64Array;
+  partI: Float64Array;
+  partU: Float64Array;
+}
 
 /** Options of a run. */
 export interface RunOptions {
   registry: PluginRegistry;
+  /** Steps the solver (default: this thread). */
+  driver?: StepDriver;
   /** Called about every 1 % of the steps with the fraction done. */
   onProgress?: (fraction: number, step: number, nSteps: number) => void;
   onWarning?: (message: string) => void;
@@ -113,12 +135,18 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     if (finished) return outputs;
     finished = true;
     for (const w of plan.waveforms) safeFinish(() => w.instance.finish?.(failure), w.type, warnings);
-    for (const p of plan.parts) {
-      if (!p.load) continue;
-      safeFinish(() => {
-        const out = p.load!.finish?.(failure);
-        if (out) outputs[p.part.id] = out;
-      }, p.part.type, warnings);
+    if (options.driver?.loadResults) {
+      const lr = options.driver.loadResults();
+      Object.assign(outputs, lr.outputs);
+      warnings.push(...lr.warnings);
+    } else {
+      for (const p of plan.parts) {
+        if (!p.load) continue;
+        safeFinish(() => {
+          const out = p.load!.finish?.(failure);
+          if (out) outputs[p.part.id] = out;
+        }, p.part.type, warnings);
+      }
     }
     for (const p of probes) {
       safeFinish(() => {
@@ -263,7 +291,13 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
       const n = ml.n;
       const p0 = plan.lineEndPort[2 * r.line + r.end];
       let acc = 0;
-      for (let m = 0; m < n; m++) acc += (ml.Ti[r.conductor * n + m] * (outVal(p0 + m) - plan.inc[p0 + m])) / ml.Zm[m];
+      // The incident wave is read back from its ring (not from plan.inc) so that a replay of an
+      // earlier step, as in partitioned runs, sees the same value.
+      for (let m = 0; m < n; m++) {
+        const q = p0 + m;
+        const w = interp(plan.pIn[q], plan.pInMask[q], plan.pK[q], plan.pF[q]);
+        acc += (ml.Ti[r.conductor * n + m] * (outVal(q) - w)) / ml.Zm[m];
+      }
       return acc;
     },
     pointVoltage: (h: PointHandle, k: number) => pointWave(h, k, false),
@@ -277,41 +311,25 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
   const timing: Record<string, number> = { compile: compileS, sources: 0, switches: 0, junctions: 0, newton: 0, parts: 0, probes: 0 };
   const progressEvery = Math.max(1, Math.floor(plan.nSteps / 100));
   const tStart = performance.now();
-  try {
-    for (step = 0; step <= plan.nSteps; step++) {
-      tS = step * plan.dtS;
-      let t1 = performance.now();
-      phaseSources(plan, tS);
-      let t2 = performance.now();
-      timing.sources += t2 - t1;
-      if (plan.varying.length > 0) {
-        phaseSwitches(plan, tS);
-        t1 = performance.now();
-        timing.switches += t1 - t2;
-        t2 = t1;
-      }
-      phaseJunctions(plan, runs, step);
-      t1 = performance.now();
-      timing.junctions += t1 - t2;
-      if (plan.nonlinear.length > 0) {
-        phaseNonlinear(plan, step, tS);
-        t2 = performance.now();
-        timing.newton += t2 - t1;
-        t1 = t2;
-      }
-      phaseParts(plan, tS, partV, partI, partU);
-      if (plan.nonlinear.length > 0) acceptNonlinear(plan, tS);
-      if (ledger) accumulateLedger(plan, ledger, partV, partI, partU);
-      t2 = performance.now();
-      timing.parts += t2 - t1;
-      if (step % plan.recordEvery === 0) {
-        for (let k = 0; k < probes.length; k++) probes[k].inst.sample(state);
-        sample++;
-        timing.probes += performance.now() - t2;
-      }
-      if (step % CHECK_EVERY === 0 || step === plan.nSteps) checkFinite(plan, step, tS);
-      if (options.onProgress && step % progressEvery === 0) options.onProgress(step / plan.nSteps, step, plan.nSteps);
+  const observe = (n: number, partsReady: boolean): void => {
+    step = n;
+    tS = n * plan.dtS;
+    const t1 = performance.now();
+    if (!partsReady) computeParts(plan, partV, partI, partU);
+    if (ledger) accumulateLedger(plan, ledger, partV, partI, partU);
+    const t2 = performance.now();
+    timing.parts += t2 - t1;
+    if (n % plan.recordEvery === 0) {
+      for (let k = 0; k < probes.length; k++) probes[k].inst.sample(state);
+      sample++;
+      timing.probes += performance.now() - t2;
     }
+    if (n % CHECK_EVERY === 0 || n === plan.nSteps) checkFinite(plan, n, tS);
+    if (options.onProgress && n % progressEvery === 0) options.onProgress(n / plan.nSteps, n, plan.nSteps);
+  };
+  const driver = options.driver ?? serialDriver(runs);
+  try {
+    await driver.run(plan, { observe, timing, partV, partI, partU });
   } catch (e) {
     failure = e instanceof SkeinError ? e : new PluginError('(step)', 'step', e, { step, timeS: tS });
     finishAll();
@@ -349,6 +367,40 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     delays: plan.delays,
     timing,
     network: summariseNetwork(sc),
+  };
+}
+
+/** The default driver: every phase on this thread, one step at a time. */
+function serialDriver(runs: Int32Array): StepDriver {
+  return {
+    async run(plan, io) {
+      const { timing, partV, partI, partU } = io;
+      for (let n = 0; n <= plan.nSteps; n++) {
+        const tS = n * plan.dtS;
+        let t1 = performance.now();
+        phaseSources(plan, tS);
+        let t2 = performance.now();
+        timing.sources += t2 - t1;
+        if (plan.varying.length > 0) {
+          phaseSwitches(plan, tS);
+          t1 = performance.now();
+          timing.switches += t1 - t2;
+          t2 = t1;
+        }
+        phaseJunctions(plan, runs, n);
+        t1 = performance.now();
+        timing.junctions += t1 - t2;
+        if (plan.nonlinear.length > 0) {
+          phaseNonlinear(plan, n, tS);
+          t2 = performance.now();
+          timing.newton += t2 - t1;
+        }
+        computeParts(plan, partV, partI, partU);
+        acceptParts(plan, tS, partV, partI);
+        if (plan.nonlinear.length > 0) acceptNonlinear(plan, tS);
+        io.observe(n, true);
+      }
+    },
   };
 }
 

@@ -90,11 +90,11 @@ export function phaseJunctions(plan: Plan, runs: Int32Array, n: number): void {
 }
 
 /**
- * Phase: parts. Fills branch voltage v, current i and source value u of each part at t_n and runs
- * accept hooks. Loads: i flows plus -> minus through the part. Sources: i is delivered out of the
- * plus terminal into the network.
+ * Phase: parts. Fills branch voltage v, current i and source value u of each part at t_n. Loads:
+ * i flows plus -> minus through the part. Sources: i is delivered out of the plus terminal into
+ * the network.
  */
-export function phaseParts(plan: Plan, tS: number, partV: Float64Array, partI: Float64Array, partU: Float64Array): void {
+export function computeParts(plan: Plan, partV: Float64Array, partI: Float64Array, partU: Float64Array): void {
   const x = plan.x;
   const slot = plan.slot;
   const parts = plan.parts;
@@ -130,9 +130,14 @@ export function phaseParts(plan: Plan, tS: number, partV: Float64Array, partI: F
     partI[k] = i;
     partU[k] = u;
   }
+}
+
+/** Phase: accept hooks of the linear loads, with the branch values of computeParts. */
+export function acceptParts(plan: Plan, tS: number, partV: Float64Array, partI: Float64Array, owned?: Uint8Array): void {
   const al = plan.acceptLoads;
   for (let k = 0; k < al.length; k++) {
     const p = al[k];
+    if (owned && owned[p.part.junction] === 0) continue;
     (p.load as { accept: (v: number, i: number, t: number) => void }).accept(partV[p.index], partI[p.index], tS);
   }
 }
