@@ -3,8 +3,9 @@
  *
  * Method (a Fourier series on the j omega axis with the slow parts taken out analytically):
  *  1. Every source's spectrum W(j omega): its waveform's `laplace` hook at sigma = 0 when present,
- *     else the exact transform of the piecewise-linear interpolant of value(t) sampled on the
- *     period (computed by FFT), plus w_inf / (j omega) for its final value w_inf.
+ *     else w_inf / (j omega) for its final value w_inf plus the transform of value(t) - w_inf by the
+ *     trapezoid rule on 32 K samples over the period (one FFT) with Gregory's end correction at
+ *     t = 0 to fifth differences.
  *  2. The output's spectrum Y(j omega) = sum over sources of H(j omega) W(j omega), solved at
  *     omega_k = 2 pi k / Tp, k = 1..K, K = ceil(fmax Tp).
  *  3. The final value y_inf = lim s Y(s) (at omega -> 0) and a smooth step r(t) = 1 - e^-x (1 + x
@@ -30,7 +31,7 @@ export interface TimeResponseOptions {
   /** Sample times [s], >= 0. */
   timesS: readonly number[];
   /**
-   * Highest frequency of the series [Hz]. Default: 8 / (shortest feature of the sources), else
+   * Highest frequency of the series [Hz]. Default: 16 / (shortest feature of the sources), else
    * 0.5 / time.step of the scenario.
    */
   maxFrequencyHz?: number;
@@ -76,6 +77,9 @@ export function fft(re: Float64Array, im: Float64Array): void {
   }
 }
 
+/** Gregory's end-correction coefficients (forward differences; Hildebrand, Introduction to Numerical Analysis, 2nd ed., sec. 5.9, from memory). */
+const GREGORY = [1 / 12, -1 / 24, 19 / 720, -3 / 160, 863 / 60480];
+
 /** Spectrum of one waveform on the grid omega_k = k dw (k = 1..K) and at omegaEps. */
 interface WaveSpectrum {
   re: Float64Array; // index k = 1..K (0 unused)
@@ -84,7 +88,7 @@ interface WaveSpectrum {
   epsIm: number;
 }
 
-function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS: number, omegaEps: number): WaveSpectrum {
+export function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS: number, omegaEps: number): WaveSpectrum {
   const inst = net.waveforms[w];
   const dw = (2 * Math.PI) / periodS;
   const re = new Float64Array(K + 1);
@@ -100,40 +104,39 @@ function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS: numbe
     return { re, im, epsRe: out[0], epsIm: out[1] };
   }
   let M = 4096;
-  while (M < 16 * K) M *= 2;
+  while (M < 32 * K) M *= 2;
   const dt = periodS / M;
   const wInf = inst.value(inst.settledAfterS !== undefined && inst.settledAfterS < periodS ? inst.settledAfterS * 1.5 + dt : periodS);
   const dr = new Float64Array(M);
   const di = new Float64Array(M);
   for (let n = 0; n < M; n++) dr[n] = inst.value(n * dt) - wInf;
-  const d0 = dr[0];
-  // Piecewise-linear interpolant: full hats at n >= 1, a half hat at t = 0.
-  const halfHat = (om: number): [number, number] => {
-    // (1 - (1 - e^{-j om dt}) / (j om dt)) / (j om)
-    const x = om * dt;
-    const er = 1 - Math.cos(x), ei = Math.sin(x); // 1 - e^{-jx} = (1 - cos x) + j sin x
-    // (er + j ei) / (j x) = (ei - j er) / x
-    const qr = 1 - ei / x, qi = er / x;
-    // (qr + j qi) / (j om) = (qi - j qr) / om
-    return [qi / om, -qr / om];
+  const d = dr.slice(0, GREGORY.length + 1);
+  // Gregory's end correction at t = 0 (the far end is settled, d = 0 there):
+  // h sum_j c_j Delta^j g_0 with g_n = d_n e^{-j omega n h}.
+  const correction = (om: number): [number, number] => {
+    const gr = new Float64Array(d.length);
+    const gi = new Float64Array(d.length);
+    for (let n = 0; n < d.length; n++) { gr[n] = d[n] * Math.cos(om * n * dt); gi[n] = -d[n] * Math.sin(om * n * dt); }
+    let cr = 0, ci = 0;
+    for (let j = 0; j < GREGORY.length; j++) {
+      for (let n = 0; n < d.length - 1 - j; n++) { gr[n] = gr[n + 1] - gr[n]; gi[n] = gi[n + 1] - gi[n]; }
+      cr += GREGORY[j] * gr[0];
+      ci += GREGORY[j] * gi[0];
+    }
+    return [dt * cr, dt * ci];
   };
-  const direct = (om: number): [number, number] => {
-    let sr = 0, si = 0;
-    for (let n = 1; n < M; n++) { sr += dr[n] * Math.cos(om * n * dt); si -= dr[n] * Math.sin(om * n * dt); }
-    const s2 = Math.sin((om * dt) / 2) / ((om * dt) / 2);
-    const [hr, hi] = halfHat(om);
-    return [dt * s2 * s2 * sr + d0 * hr, dt * s2 * s2 * si + d0 * hi + -wInf / om];
-  };
-  const [er, ei] = direct(omegaEps);
-  dr[0] = 0;
+  // W = w_inf / (j omega) + integral of (w - w_inf) by the trapezoid rule with Gregory's correction.
+  let sr = 0, si = 0;
+  for (let n = 1; n < M; n++) { sr += dr[n] * Math.cos(omegaEps * n * dt); si -= dr[n] * Math.sin(omegaEps * n * dt); }
+  const [c0r, c0i] = correction(omegaEps);
+  const er = dt * (d[0] / 2 + sr) + c0r;
+  const ei = dt * si + c0i - wInf / omegaEps;
   fft(dr, di);
   for (let k = 1; k <= K; k++) {
     const om = k * dw;
-    const x = (om * dt) / 2;
-    const s2 = (Math.sin(x) / x) ** 2;
-    const [hr, hi] = halfHat(om);
-    re[k] = dt * s2 * dr[k] + d0 * hr;
-    im[k] = dt * s2 * di[k] + d0 * hi - wInf / om;
+    const [cr, ci] = correction(om);
+    re[k] = dt * (dr[k] - d[0] / 2) + cr;
+    im[k] = dt * di[k] + ci - wInf / om;
   }
   return { re, im, epsRe: er, epsIm: ei };
 }
@@ -160,7 +163,7 @@ export async function timeResponse(scenario: ResolvedScenario, registry: PluginR
   if (fmax === undefined) {
     let feature = Infinity;
     for (const w of net.waveforms) if (w.shortestFeatureS !== undefined && w.shortestFeatureS > 0) feature = Math.min(feature, w.shortestFeatureS);
-    if (Number.isFinite(feature)) fmax = 8 / feature;
+    if (Number.isFinite(feature)) fmax = 16 / feature;
     else if (scenario.time.stepS !== undefined) fmax = 0.5 / scenario.time.stepS;
     else throw badInput(['maxFrequencyHz'], 'must be given: the sources declare no shortest feature and the scenario sets no time.step', undefined, 'E_SPECTRAL_TIME');
   }

@@ -1,6 +1,6 @@
 // Inline plugins for the spectral tests, written against the public plugin API exactly as a user's
 // plugin would be: loads with the `admittance` hook, waveforms with and without `laplace`.
-import { defineLoad, defineSource, PluginRegistry } from '@skein/core';
+import { defineLoad, defineProbe, defineSource, PluginRegistry, type NodeHandle, type TraceHandle } from '@skein/core';
 
 /** Unit step at t = 0 (times amplitude); W(s) = A / s. */
 export const stepSource = defineSource({
@@ -77,9 +77,21 @@ export const bareLoad = defineLoad({
   create: (p) => ({ kind: 'linear', conductanceS: 1 / p.resistance }),
 });
 
+/** Node voltage probe for the time-domain runs. */
+export const nodeProbe = defineProbe({
+  type: 'node-voltage',
+  summary: 'node voltage',
+  params: { node: { kind: 'string', summary: 'junction.node' } },
+  create: (p, ctx) => {
+    const h: NodeHandle = ctx.node(p.node, 'node');
+    const tr: TraceHandle = ctx.trace('v', 'V');
+    return { sample: (s) => s.record(tr, s.nodeVoltage(h)) };
+  },
+});
+
 /** The registry of the spectral tests. */
 export function spectralRegistry(): PluginRegistry {
   const r = new PluginRegistry();
-  for (const p of [stepSource, edgeSource, gaussianSource, resistorLoad, capacitorLoad, bareLoad]) r.register(p, 'spectral/__tests__/fixtures.ts');
+  for (const p of [stepSource, edgeSource, gaussianSource, resistorLoad, capacitorLoad, bareLoad, nodeProbe]) r.register(p, 'spectral/__tests__/fixtures.ts');
   return r;
 }
