@@ -5,7 +5,7 @@
  * so the timer covers exactly what a sweep does per case: resolve and key it, run it on a worker,
  * collect its outputs. Prints cases per second for each pool and their ratio.
  *
- *   npx tsx packages/sweep/bench/sweepBench.ts [--cases 200] [--json]
+ *   npx tsx packages/sweep/bench/sweepBench.ts [--cases 200] [--steps 4000] [--json]
  */
 import { readFileSync } from 'node:fs';
 import { fileURLToPath } from 'node:url';
@@ -17,10 +17,12 @@ const argv = process.argv.slice(2);
 const at = argv.indexOf('--cases');
 const nCases = at >= 0 ? Number(argv[at + 1]) : 200;
 const json = argv.includes('--json');
+const st = argv.indexOf('--steps');
+const steps = st >= 0 ? Number(argv[st + 1]) : 4000;
 
 const base = parseLocatedDocument(readFileSync(fileURLToPath(new URL('../examples/cableRun.yaml', import.meta.url)), 'utf8')).data as Record<string, unknown>;
-// 800 steps per case: a small case, a few milliseconds of stepping.
-base.time = { end: '8us', step: '0.01us' };
+// A small case: one line, two junctions, 4000 steps (8 us at 2 ns), about 10 ms of work.
+base.time = { end: '8us', step: 8e-6 / steps };
 const spec = sweepFromData({
   sweep: 1,
   title: 'pool throughput',
@@ -50,9 +52,9 @@ const two = await throughput(2);
 if (one.sum !== two.sum) throw new Error(`bench: 1 and 2 workers disagree (${one.sum} vs ${two.sum})`);
 const ratio = two.casesPerS / one.casesPerS;
 if (json) {
-  console.log(JSON.stringify({ cases: nCases, one, two, ratio }));
+  console.log(JSON.stringify({ cases: nCases, steps, one, two, ratio }));
 } else {
-  console.log(`sweep pool throughput, ${nCases} cases`);
+  console.log(`sweep pool throughput, ${nCases} cases of ${steps} steps`);
   console.log(`  1 worker : ${one.casesPerS.toFixed(1)} cases/s (${one.seconds.toFixed(2)} s)`);
   console.log(`  2 workers: ${two.casesPerS.toFixed(1)} cases/s (${two.seconds.toFixed(2)} s)`);
   console.log(`  ratio 2/1: ${ratio.toFixed(2)} (target >= 1.8)`);
