@@ -1,12 +1,11 @@
 /**
  * `diode`: the Shockley junction i_j = Is (exp(x / (n Vt)) - 1), Vt = k T / q, with a series
- * resistance and a constant junction capacitance (see junction.ts). The exponential continues
- * linearly beyond an argument of 80 so that i(v) stays finite and C1 at any voltage.
- * Source: W. Shockley, Bell Syst. Tech. J. 28, 435-489, 1949; Sze, Physics of Semiconductor
- * Devices, ch. 2 (from memory). Reverse breakdown is not modelled (use `tvs-clamp`).
+ * resistance and a constant junction capacitance (see junction.ts).  * Source: W. Shockley, Bell Syst. Tech. J. 28, 435-489, 1949; Sze, Physics of Semiconductor
+ * Devices, ch. 2 (from memory). The exponential continues linearly beyond a junction current of
+ * 1 MA (EXP_LINEAR_CURRENT_A). Reverse breakdown is not modelled (use `tvs-clamp`).
  */
 import { defineLoad, type SetupContext } from '@skein/core';
-import { expLinear, JunctionDevice, limitExponentialStep } from './junction.ts';
+import { expArgMax, expLinear, JunctionDevice, limitExponentialStep } from './junction.ts';
 import { RATING_PARAMS, type Ratings } from './meter.ts';
 
 /** Boltzmann constant / elementary charge [V/K] (CODATA 2018 exact values). */
@@ -30,18 +29,19 @@ export interface ShockleyParams {
 
 /** Per-run object of the diode (class so that its state stays private). */
 export class DiodeDevice extends JunctionDevice {
-  readonly #q: Float64Array; // [Is, nVt, vcrit, scratch e, de]
+  readonly #q: Float64Array; // [Is, nVt, vcrit, scratch e, de, zMax]
 
   constructor(j: ShockleyParams, seriesResistanceOhm: number, capacitanceF: number, ratings: Ratings, ctx: SetupContext) {
     super('diode', seriesResistanceOhm, capacitanceF, ratings, ctx);
     const nvt = j.emissionCoefficient * thermalVoltage(j.temperatureK);
     // Critical voltage of the logarithmic limiting: nVt ln(nVt / (sqrt 2 Is)).
-    this.#q = new Float64Array([j.saturationCurrentA, nvt, nvt * Math.log(nvt / (Math.SQRT2 * j.saturationCurrentA)), 0, 0]);
+    this.#q = new Float64Array([j.saturationCurrentA, nvt, nvt * Math.log(nvt / (Math.SQRT2 * j.saturationCurrentA)), 0, 0, expArgMax(j.saturationCurrentA)]);
   }
 
   protected junction(buf: Float64Array, at: number): void {
     const q = this.#q;
     q[3] = buf[at] / q[1];
+    q[4] = q[5];
     expLinear(q, 3);
     buf[at + 1] = q[0] * (q[3] - 1);
     buf[at + 2] = (q[0] * q[4]) / q[1];

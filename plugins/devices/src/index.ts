@@ -17,7 +17,7 @@ export { sparkGapLoad, SparkGapDevice } from './sparkGap.ts';
 export { controlledSwitchLoad, ControlledSwitchDevice } from './controlledSwitch.ts';
 export { rampedSwitchLoad, RampedSwitchDevice } from './rampedSwitch.ts';
 export { filamentLoad, FilamentDevice } from './filament.ts';
-export { JunctionDevice, expLinear, limitExponentialStep, EXP_ARG_MAX } from './junction.ts';
+export { JunctionDevice, expLinear, expArgMax, limitExponentialStep, EXP_ARG_MAX, EXP_LINEAR_CURRENT_A } from './junction.ts';
 export { DeviceMeter, finishDevice, RATING_PARAMS, type Ratings } from './meter.ts';
 
 /** Every standard device, in registration order. */

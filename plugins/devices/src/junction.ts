@@ -19,19 +19,36 @@ import { DeviceMeter, finishDevice, type Ratings } from './meter.ts';
 export const EXP_ARG_MAX = 80;
 
 /**
- * exp(z) continued linearly beyond EXP_ARG_MAX, C1 at the joint: reads z from buf[at], writes the
- * value to buf[at] and its derivative to buf[at + 1] (array in and out: no boxed doubles).
- * @example const o = new Float64Array([1, 0]); expLinear(o, 0); o[0] // e
+ * Junction current beyond which a device's exponential continues linearly [A]: 1 MA, far above
+ * any device rating, low enough that Newton iterations from far above the solution (where an
+ * exponential converges by one slope voltage per iteration) start close to it.
+ */
+export const EXP_LINEAR_CURRENT_A = 1e6;
+
+/**
+ * The exponent argument at which an exponential I0 e^z reaches EXP_LINEAR_CURRENT_A (at most EXP_ARG_MAX).
+ * @example expArgMax(1e-14) // ln(1e20) = 46.05
+ */
+export function expArgMax(i0A: number): number {
+  return Math.min(EXP_ARG_MAX, Math.log(EXP_LINEAR_CURRENT_A / i0A));
+}
+
+/**
+ * exp(z) continued linearly beyond zMax, C1 at the joint: reads z from buf[at] and zMax from
+ * buf[at + 1], writes the value to buf[at] and its derivative to buf[at + 1] (array in and out:
+ * no boxed doubles).
+ * @example const o = new Float64Array([1, 80]); expLinear(o, 0); o[0] // e
  */
 export function expLinear(buf: Float64Array, at: number): void {
   const z = buf[at];
-  if (z <= EXP_ARG_MAX) {
+  const zm = buf[at + 1];
+  if (z <= zm) {
     const e = Math.exp(z);
     buf[at] = e;
     buf[at + 1] = e;
   } else {
-    const e = Math.exp(EXP_ARG_MAX);
-    buf[at] = e * (1 + z - EXP_ARG_MAX);
+    const e = Math.exp(zm);
+    buf[at] = e * (1 + z - zm);
     buf[at + 1] = e;
   }
 }

@@ -10,7 +10,7 @@
  */
 import { badInput, defineLoad, type SetupContext } from '@skein/core';
 import { thermalVoltage } from './diode.ts';
-import { expLinear, JunctionDevice, limitExponentialStep } from './junction.ts';
+import { expArgMax, expLinear, JunctionDevice, limitExponentialStep } from './junction.ts';
 import { RATING_PARAMS, type Ratings } from './meter.ts';
 
 /** Forward diode of a unidirectional TVS: Is [A] and n (common practice values for a power diode). */
@@ -19,7 +19,7 @@ const FORWARD_N = 1.5;
 
 /** Per-run object of the TVS clamp. */
 export class TvsDevice extends JunctionDevice {
-  // [It, Vbr, Vs, bidirectional (1/0), Is_f, nVt_f, vcrit_br, vcrit_f, scratch e1, de1, e2, de2]
+  // [It, Vbr, Vs, bidirectional (1/0), Is_f, nVt_f, vcrit_br, vcrit_f, scratch e1, de1, e2, de2, zMax_br, zMax_f]
   readonly #q: Float64Array;
 
   constructor(breakdownV: number, testA: number, slopeV: number, bidirectional: boolean, rdOhm: number, capF: number, ratings: Ratings, ctx: SetupContext) {
@@ -28,6 +28,7 @@ export class TvsDevice extends JunctionDevice {
     this.#q = new Float64Array([
       testA, breakdownV, slopeV, bidirectional ? 1 : 0, FORWARD_IS_A, nvt,
       breakdownV + slopeV * Math.log(slopeV / (Math.SQRT2 * testA)), nvt * Math.log(nvt / (Math.SQRT2 * FORWARD_IS_A)), 0, 0, 0, 0,
+      expArgMax(testA), expArgMax(FORWARD_IS_A),
     ]);
   }
 
@@ -38,17 +39,20 @@ export class TvsDevice extends JunctionDevice {
     const vbr = q[1];
     const vs = q[2];
     q[8] = (x - vbr) / vs;
+    q[9] = q[12];
     expLinear(q, 8);
     const off = it * Math.exp(-vbr / vs);
     let j = it * q[8] - off;
     let dj = (it * q[9]) / vs;
     if (q[3] === 1) {
       q[10] = (-x - vbr) / vs;
+      q[11] = q[12];
       expLinear(q, 10);
       j -= it * q[10] - off;
       dj += (it * q[11]) / vs;
     } else {
       q[10] = -x / q[5];
+      q[11] = q[13];
       expLinear(q, 10);
       j -= q[4] * (q[10] - 1);
       dj += (q[4] * q[11]) / q[5];
