@@ -64,12 +64,22 @@ export function caseCount(spec: SweepSpec): number {
  * @example expandCases(spec).length === caseCount(spec)
  */
 export function expandCases(spec: SweepSpec, shard?: { index: number; count: number }): SweepCase[] {
-  const lists = spec.parameters.map((p) => parameterValues(p, spec.seed));
-  const n = caseCount(spec);
+  const make = caseMaker(spec);
   const cases: SweepCase[] = [];
+  const n = caseCount(spec);
+  for (let i = shard ? shard.index : 0; i < n; i += shard ? shard.count : 1) cases.push(make(i));
+  return cases;
+}
+
+/**
+ * A function that builds case `i` of a sweep on demand (the parameter values are drawn once), so
+ * that a sweep of millions of cases never holds them all.
+ * @example caseMaker(spec)(3).values
+ */
+export function caseMaker(spec: SweepSpec): (index: number) => SweepCase {
+  const lists = spec.parameters.map((p) => parameterValues(p, spec.seed));
   const baseJson = JSON.stringify(spec.scenario);
-  for (let i = 0; i < n; i++) {
-    if (shard && i % shard.count !== shard.index) continue;
+  return (i) => {
     const values = new Array<unknown>(lists.length);
     if (spec.combine === 'zip') {
       for (let k = 0; k < lists.length; k++) values[k] = lists[k][i];
@@ -82,7 +92,6 @@ export function expandCases(spec: SweepSpec, shard?: { index: number; count: num
     }
     const scenario = JSON.parse(baseJson) as unknown;
     spec.parameters.forEach((p, k) => setAt(scenario, p.path, values[k]));
-    cases.push({ index: i, values, scenario });
-  }
-  return cases;
+    return { index: i, values, scenario };
+  };
 }

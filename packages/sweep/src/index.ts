@@ -8,7 +8,7 @@ export {
   loadSweep, loadSweepFile, sweepFromData, SWEEP_FORMAT_VERSION, SWEEP_UNITS, OUTPUT_KINDS,
   type SweepSpec, type ParameterSpec, type OutputSpec, type ListValues, type RangeValues, type DrawValues, type LoadSweepOptions,
 } from './spec.ts';
-export { expandCases, parameterValues, caseCount, type SweepCase } from './expand.ts';
+export { expandCases, caseMaker, parameterValues, caseCount, type SweepCase } from './expand.ts';
 export { parseValuePath } from './paths.ts';
 export { createRandom, streamSeed, type Random } from './prng.ts';
 export { summarise, percentile, type Summary } from './stats.ts';

@@ -5,10 +5,11 @@
  * an interrupted sweep run again computes only the cases it had not finished.
  */
 import { copyFileSync, existsSync, mkdirSync, readFileSync } from 'node:fs';
+import { availableParallelism } from 'node:os';
 import { join, relative } from 'node:path';
 import { digestOf, ENGINE_VERSION, resolveScenarioData, resolveScenarioText, writeFileAtomic, type PluginRegistry } from '@skein/core';
 import { decodeCaseRecord, encodeCaseRecord, failedRecord, type CaseRecord, type CaseTask } from './caseRun.ts';
-import { caseCount, expandCases } from './expand.ts';
+import { caseCount, caseMaker } from './expand.ts';
 import { createCasePool } from './pool.ts';
 import type { SweepSpec } from './spec.ts';
 import { summariseRows, TABLE_FORMAT, TABLE_VERSION, tableToCsv, writeTable, type SweepRow, type SweepTable } from './table.ts';
@@ -73,7 +74,8 @@ function cachePath(dir: string, key: string): string {
 }
 
 /**
- * Runs a sweep.
+ * Runs a sweep. Cases are built, resolved and keyed one at a time as workers become free, so a
+ * sweep of millions of cases holds only its table rows, not its scenarios.
  * @param spec from loadSweep / loadSweepFile.
  * @param options plugins, workers or executor, cache and results folders, shard, table paths.
  * @returns the table and how many cases were computed, cached and repeated.
@@ -87,67 +89,24 @@ export async function runSweep(spec: SweepSpec, options: RunSweepOptions): Promi
   if (spec.scenarioText !== undefined) resolveScenarioText(spec.scenarioText, { registry, file: spec.scenarioFile });
   else resolveScenarioData(spec.scenario, { registry, file: spec.file ? `${spec.file} (scenario)` : undefined });
 
-  const cases = expandCases(spec, options.shard);
+  const makeCase = caseMaker(spec);
+  const nAll = caseCount(spec);
+  const first = options.shard ? options.shard.index : 0;
+  const stride = options.shard ? options.shard.count : 1;
+  const total = first < nAll ? Math.ceil((nAll - first) / stride) : 0;
   const outputsKey = digestOf(spec.outputs).slice(0, 16);
   if (options.cacheDir) mkdirSync(options.cacheDir, { recursive: true });
   if (options.resultsDir) mkdirSync(options.resultsDir, { recursive: true });
 
-  const rows: SweepRow[] = new Array(cases.length);
-  const counts = { cases: cases.length, computed: 0, cached: 0, duplicates: 0, failed: 0 };
-  const pending: Array<{ slot: number; task: CaseTask; resultsFile: string | null }> = [];
-  const firstOfKey = new Map<string, number>();
-  const firstResultsFile = new Map<number, string>();
-  const repeats: Array<{ slot: number; of: number; resultsFile: string | null }> = [];
-
-  const rowOf = (slot: number, rec: CaseRecord, source: SweepRow['source'], resultsFile: string | null): SweepRow => ({
-    index: cases[slot].index,
-    digest: rec.digest,
-    status: rec.ok ? 'ok' : 'failed',
-    values: cases[slot].values,
-    outputs: rec.outputs,
-    error: rec.error ?? null,
-    resultsFile,
-    source,
-  });
-
-  cases.forEach((c, slot) => {
-    let digest: string;
-    try {
-      digest = resolveScenarioData(c.scenario, { registry }).digest;
-    } catch (e) {
-      // A value the engine refuses (a drawn negative resistance): recorded, never run.
-      const rec = failedRecord({ key: '', digest: digestOf(c.scenario), outputs: spec.outputs }, e);
-      rows[slot] = rowOf(slot, rec, 'input', null);
-      counts.failed++;
-      return;
-    }
-    const key = `${digest}-${outputsKey}`;
-    const resultsFile = options.resultsDir ? join(options.resultsDir, `case-${c.index}.results.msgpack`) : null;
-    const first = firstOfKey.get(key);
-    if (first !== undefined) {
-      repeats.push({ slot, of: first, resultsFile });
-      return;
-    }
-    firstOfKey.set(key, slot);
-    if (resultsFile) firstResultsFile.set(slot, resultsFile);
-    if (options.cacheDir && existsSync(cachePath(options.cacheDir, key)) && (!resultsFile || existsSync(resultsFile))) {
-      try {
-        const rec = decodeCaseRecord(readFileSync(cachePath(options.cacheDir, key)));
-        rows[slot] = rowOf(slot, rec, 'cached', resultsFile ? relativeTo(options.tablePath, resultsFile) : null);
-        counts.cached++;
-        if (!rec.ok) counts.failed++;
-        return;
-      } catch {
-        // An unreadable cache entry is computed again (and overwritten).
-      }
-    }
-    pending.push({ slot, task: { key, digest, scenario: c.scenario, outputs: spec.outputs, keepResults: resultsFile !== null }, resultsFile });
-  });
+  const rows: SweepRow[] = new Array(total);
+  const counts = { cases: total, computed: 0, cached: 0, duplicates: 0, failed: 0 };
+  // The first case of each key: its record (once known) and its results file.
+  const byKey = new Map<string, { record: Promise<CaseRecord>; resultsFile: string | null }>();
+  const parameters = spec.parameters.map((p) => ({ name: p.name, path: p.path.join('.'), kind: p.values.kind === 'draw' ? `draw ${p.values.dist}` : p.values.kind }));
+  const outputs = spec.outputs.map((o) => ({ name: o.name, kind: o.kind }));
 
   const tableOf = (complete: boolean): SweepTable => {
     const done = rows.filter((r) => r !== undefined);
-    const parameters = spec.parameters.map((p) => ({ name: p.name, path: p.path.join('.'), kind: p.values.kind === 'draw' ? `draw ${p.values.dist}` : p.values.kind }));
-    const outputs = spec.outputs.map((o) => ({ name: o.name, kind: o.kind }));
     return {
       format: TABLE_FORMAT,
       version: TABLE_VERSION,
@@ -156,7 +115,7 @@ export async function runSweep(spec: SweepSpec, options: RunSweepOptions): Promi
       title: spec.title,
       seed: spec.seed,
       combine: spec.combine,
-      totalCases: caseCount(spec),
+      totalCases: nAll,
       parameters,
       outputs,
       rows: done,
@@ -165,74 +124,127 @@ export async function runSweep(spec: SweepSpec, options: RunSweepOptions): Promi
     };
   };
 
-  const total = cases.length;
-  let finished = total - pending.length - repeats.length;
-  let tFirst = performance.now();
+  let finished = 0;
+  let tFirst = 0;
   const report = (): void => {
     if (!options.onProgress) return;
-    const left = pending.length - counts.computed;
-    // The rate from the first finished case on, so that worker start-up does not inflate the ETA.
-    if (counts.computed === 1) tFirst = performance.now();
+    if (counts.computed === 1 && tFirst === 0) tFirst = performance.now();
+    // The rate from the first computed case on, so that worker start-up does not inflate the ETA.
     const rate = (counts.computed - 1) / ((performance.now() - tFirst) / 1000);
-    options.onProgress({ done: finished, total, computed: counts.computed, failed: counts.failed, etaS: counts.computed > 1 && rate > 0 ? left / rate : left === 0 ? 0 : NaN });
+    const left = total - finished;
+    options.onProgress({ done: finished, total, computed: counts.computed, failed: counts.failed, etaS: left === 0 ? 0 : counts.computed > 1 && rate > 0 ? left / rate : NaN });
   };
   report();
 
-  const ownExecutor = options.executor === undefined;
+  // The pool starts only when a case must be computed (a fully cached resume starts no thread).
   let executor: CaseExecutor | undefined = options.executor;
+  let starting: Promise<CaseExecutor> | undefined;
+  const getExecutor = (): Promise<CaseExecutor> => {
+    if (executor) return Promise.resolve(executor);
+    starting ??= Promise.resolve().then(() => {
+      const pool = createCasePool({ modules: registry.modules, workers: options.workers });
+      executor = { capacity: Math.max(1, pool.workers) * 2, run: (t) => pool.run(t), close: () => pool.close() };
+      return executor;
+    });
+    return starting;
+  };
+  const lanes = options.executor ? options.executor.capacity : Math.max(1, options.workers ?? availableParallelism()) * 2;
+
   let lastFlush = performance.now();
+  let flushCostMs = 0;
   const flushEveryMs = (options.flushEveryS ?? 2) * 1000;
   let interrupted = false;
-  try {
-    if (pending.length > 0) {
-      if (!executor) {
-        const pool = createCasePool({ modules: registry.modules, workers: options.workers });
-        executor = { capacity: Math.max(1, pool.workers) * 2, run: (t) => pool.run(t), close: () => pool.close() };
-      }
-      const exec = executor;
-      let next = 0;
-      const lane = async (): Promise<void> => {
-        while (next < pending.length) {
-          if (options.signal?.aborted) {
-            interrupted = true;
-            return;
-          }
-          const job = pending[next++];
-          let rec: CaseRecord;
-          try {
-            rec = await exec.run(job.task);
-          } catch (e) {
-            rec = failedRecord(job.task, e);
-          }
-          if (job.resultsFile && rec.results) writeFileAtomic(job.resultsFile, rec.results);
-          const keep = { ...rec, results: undefined };
-          if (options.cacheDir && (rec.ok || rec.deterministic)) writeFileAtomic(cachePath(options.cacheDir, job.task.key), encodeCaseRecord(keep));
-          rows[job.slot] = rowOf(job.slot, keep, 'computed', job.resultsFile ? relativeTo(options.tablePath, job.resultsFile) : null);
-          counts.computed++;
-          if (!rec.ok) counts.failed++;
-          finished++;
-          report();
-          if (options.tablePath && performance.now() - lastFlush > flushEveryMs) {
-            lastFlush = performance.now();
-            writeTable(tableOf(false), options.tablePath);
-          }
-        }
-      };
-      await Promise.all(Array.from({ length: Math.min(exec.capacity, pending.length) }, lane));
+  let cursor = 0;
+
+  const one = async (slot: number): Promise<void> => {
+    const c = makeCase(first + slot * stride);
+    const rowOf = (rec: CaseRecord, source: SweepRow['source'], resultsFile: string | null): SweepRow => ({
+      index: c.index,
+      digest: rec.digest,
+      status: rec.ok ? 'ok' : 'failed',
+      values: c.values,
+      outputs: rec.outputs,
+      error: rec.error ?? null,
+      resultsFile: resultsFile ? relativeTo(options.tablePath, resultsFile) : null,
+      source,
+    });
+    let digest: string;
+    try {
+      digest = resolveScenarioData(c.scenario, { registry }).digest;
+    } catch (e) {
+      // A value the engine refuses (a drawn negative resistance): recorded, never run.
+      rows[slot] = rowOf(failedRecord({ key: '', digest: digestOf(c.scenario), outputs: spec.outputs }, e), 'input', null);
+      counts.failed++;
+      return;
     }
+    const key = `${digest}-${outputsKey}`;
+    const resultsFile = options.resultsDir ? join(options.resultsDir, `case-${c.index}.results.msgpack`) : null;
+    const earlier = byKey.get(key);
+    if (earlier) {
+      const rec = await earlier.record;
+      // A repeat gets its own copy of the results file, so that every case index has one.
+      const copied = resultsFile !== null && earlier.resultsFile !== null && existsSync(earlier.resultsFile);
+      if (copied) copyFileSync(earlier.resultsFile!, resultsFile!);
+      rows[slot] = rowOf(rec, 'duplicate', copied ? resultsFile : null);
+      counts.duplicates++;
+      if (!rec.ok) counts.failed++;
+      return;
+    }
+    const cacheFile = options.cacheDir ? cachePath(options.cacheDir, key) : undefined;
+    if (cacheFile && existsSync(cacheFile) && (!resultsFile || existsSync(resultsFile))) {
+      let rec: CaseRecord | undefined;
+      try {
+        rec = decodeCaseRecord(readFileSync(cacheFile));
+      } catch {
+        // An unreadable cache entry is computed again (and overwritten).
+      }
+      if (rec) {
+        byKey.set(key, { record: Promise.resolve(rec), resultsFile });
+        rows[slot] = rowOf(rec, 'cached', resultsFile);
+        counts.cached++;
+        if (!rec.ok) counts.failed++;
+        return;
+      }
+    }
+    const task: CaseTask = { key, digest, scenario: c.scenario, outputs: spec.outputs, keepResults: resultsFile !== null };
+    const record = getExecutor()
+      .then((exec) => exec.run(task))
+      .catch((e: unknown) => failedRecord(task, e))
+      .then((rec) => {
+        if (resultsFile && rec.results) writeFileAtomic(resultsFile, rec.results);
+        const keep: CaseRecord = { ...rec, results: undefined };
+        if (cacheFile && (rec.ok || rec.deterministic)) writeFileAtomic(cacheFile, encodeCaseRecord(keep));
+        return keep;
+      });
+    byKey.set(key, { record, resultsFile });
+    const rec = await record;
+    rows[slot] = rowOf(rec, 'computed', resultsFile);
+    counts.computed++;
+    if (!rec.ok) counts.failed++;
+  };
+
+  const lane = async (): Promise<void> => {
+    while (cursor < total) {
+      if (options.signal?.aborted) {
+        interrupted = true;
+        return;
+      }
+      await one(cursor++);
+      finished++;
+      report();
+      // Rewrite the table now and then; never spend more than a tenth of the time on it.
+      if (options.tablePath && performance.now() - lastFlush > Math.max(flushEveryMs, 10 * flushCostMs)) {
+        const tf = performance.now();
+        writeTable(tableOf(false), options.tablePath);
+        lastFlush = performance.now();
+        flushCostMs = lastFlush - tf;
+      }
+    }
+  };
+  try {
+    await Promise.all(Array.from({ length: Math.min(lanes, Math.max(1, total)) }, lane));
   } finally {
-    if (ownExecutor && executor) await executor.close();
-  }
-  for (const { slot, of, resultsFile } of repeats) {
-    const src = rows[of];
-    if (!src) continue;
-    // A repeat gets its own copy of the results file, so that every case index has one.
-    const srcFile = firstResultsFile.get(of);
-    if (resultsFile && srcFile && existsSync(srcFile)) copyFileSync(srcFile, resultsFile);
-    rows[slot] = { ...src, index: cases[slot].index, values: cases[slot].values, source: 'duplicate', resultsFile: resultsFile && srcFile ? relativeTo(options.tablePath, resultsFile) : null };
-    counts.duplicates++;
-    if (src.status === 'failed') counts.failed++;
-    finished++;
+    if (!options.executor && executor) await executor.close();
   }
   report();
   const table = tableOf(!interrupted && !options.shard);
