@@ -1,4 +1,5 @@
 import { describe, expect, it } from 'vitest';
+import type { NonlinearLoadInstance } from '@skein/core';
 import { diodeLoad, limitExponentialStep, thermalVoltage, tvsClampLoad } from '../index.ts';
 import { current, expectClose, makeLoad, newtonSolve, slope, testContext } from './helpers.ts';
 
@@ -109,7 +110,7 @@ describe('tvsClampLoad', () => {
   const p = { breakdownVoltage: 33, testCurrent: 1e-3, clampVoltage: 53, peakPulseCurrent: 28, slopeVoltage: 0.66 };
 
   /** Voltage at which the clamp carries current i, by bisection. */
-  function voltageAt(d: ReturnType<typeof makeLoad>, i: number): number {
+  function voltageAt(d: NonlinearLoadInstance, i: number): number {
     let lo = 0;
     let hi = 1000;
     for (let k = 0; k < 200; k++) {
