@@ -13,3 +13,4 @@ export { toTouchstone, parseTouchstone, type TouchstoneOptions, type TouchstoneD
 export { timeResponse, fft, type TimeResponseOptions, type TimeResponse } from './timeResponse.ts';
 export { lineBlock, type LineBlock } from './lineBlock.ts';
 export { cZeros, cFrom, cIdentity, cMul, cLu, cLuSolve, cInverse, cEigen, csqrt, type CMatrix, type CLu, type CEigen } from './complex.ts';
+export { parseSpectrumArgs, spectralSection, formatSpectrumTable, runSpectrumCommand, type SpectrumCommand } from './command.ts';
