@@ -2,13 +2,13 @@
  * Runs scenario text through the engine with the standard plugins, as `skein run` does.
  */
 import { loadPluginModules, PluginRegistry, resolveScenarioText, runScenario, type RunResult } from '@skein/core';
-import { STANDARD_PLUGINS } from '@skein/cli';
+import { STANDARD_PLUGINS, STANDARD_PLUGINS_BASE } from '@skein/cli';
 
 let cached: Promise<PluginRegistry> | undefined;
 
 /** The standard plugin registry (loaded once per test file). */
 export function standardRegistry(): Promise<PluginRegistry> {
-  cached ??= loadPluginModules(new PluginRegistry(), STANDARD_PLUGINS, import.meta.url);
+  cached ??= loadPluginModules(new PluginRegistry(), STANDARD_PLUGINS, STANDARD_PLUGINS_BASE);
   return cached;
 }
 

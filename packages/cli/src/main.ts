@@ -6,11 +6,11 @@ import { basename, dirname, join, resolve } from 'node:path';
 import { fileURLToPath, pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
 import {
-  compileScenario, InputError, loadPluginModules, PluginRegistry, readResults, resolveScenarioText, runPlan, scenarioSchema,
+  compileScenario, InputError, runPartitioned, loadPluginModules, PluginRegistry, readResults, resolveScenarioText, runPlan, scenarioSchema,
   SkeinError, writeFileAtomic, writeResults, type ResolvedScenario,
 } from '@skein/core';
 import { createProgress } from './progress.ts';
-import { STANDARD_PLUGINS } from './standardPlugins.ts';
+import { STANDARD_PLUGINS, STANDARD_PLUGINS_BASE } from './standardPlugins.ts';
 import { formatCheck, formatInspect, formatRunSummary } from './summary.ts';
 import { toCsv } from './export.ts';
 import { formatParams, lineParams, parseFrequencies } from './params.ts';
@@ -26,9 +26,10 @@ const USAGE = `skein: pulses in wire networks
 usage: skein <command> [options]
 
 commands:
-  run FILE [--out PATH] [--report]
+  run FILE [--out PATH] [--report] [--threads N]
                                simulate a scenario (YAML or JSON), write a results file
-                               (and with --report the SVG plots and the HTML report beside it)
+                               (and with --report the SVG plots and the HTML report beside it;
+                               --threads N partitions the network over N worker threads)
   check FILE [--json]          validate a scenario and print derived data (modes, Zc, delays, step)
   demo [--out DIR]             run the built-in demo scenario, write its results and report
   inspect RESULTS              summarise a results file
@@ -64,7 +65,7 @@ const defaultIo: Io = {
  */
 export async function buildRegistry(flags: { plugin?: string[]; config?: string }): Promise<PluginRegistry> {
   const registry = new PluginRegistry();
-  await loadPluginModules(registry, STANDARD_PLUGINS, import.meta.url);
+  await loadPluginModules(registry, STANDARD_PLUGINS, STANDARD_PLUGINS_BASE);
   const configPath = flags.config ?? (existsSync('skein.config.json') ? 'skein.config.json' : undefined);
   if (configPath) {
     let cfg: unknown;
@@ -102,11 +103,19 @@ export function defaultResultsPath(scenarioFile: string): string {
 async function runFile(file: string, outPath: string, flags: Flags, io: Io): Promise<void> {
   const registry = await buildRegistry(flags);
   const t0 = performance.now();
-  const sc = readScenario(file, registry);
-  const plan = await compileScenario(sc, { registry });
-  const compileS = (performance.now() - t0) / 1000;
+  const threads = flags.threads === undefined ? 1 : Number(flags.threads);
+  if (!Number.isInteger(threads) || threads < 1) throw new InputError('E_USAGE', ['--threads'], 'must be a whole number of threads, at least 1', flags.threads);
   const progress = createProgress(`running ${basename(file)}`, process.stderr, flags.quiet);
-  const result = await runPlan(plan, { registry, onProgress: (f) => progress.update(f) }, compileS);
+  let result;
+  if (threads > 1) {
+    readScenario(file, registry);
+    result = await runPartitioned({ text: readFileSync(file, 'utf8'), file }, { registry, threads, onProgress: (f) => progress.update(f) });
+  } else {
+    const sc = readScenario(file, registry);
+    const plan = await compileScenario(sc, { registry });
+    const compileS = (performance.now() - t0) / 1000;
+    result = await runPlan(plan, { registry, onProgress: (f) => progress.update(f) }, compileS);
+  }
   progress.done();
   writeResults(outPath, result, file);
   io.out(formatRunSummary(result, outPath));
@@ -132,6 +141,7 @@ interface Flags {
   json?: boolean;
   csv?: boolean;
   report?: boolean;
+  threads?: string;
   help?: boolean;
   at?: string;
   section?: boolean;
@@ -156,6 +166,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         json: { type: 'boolean' },
         csv: { type: 'boolean' },
         report: { type: 'boolean' },
+        threads: { type: 'string' },
         at: { type: 'string' },
         section: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },

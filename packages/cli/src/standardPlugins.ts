@@ -6,4 +6,9 @@ export const STANDARD_PLUGINS: readonly string[] = [
   '@skein/plugin-waveforms',
   '@skein/plugin-loads',
   '@skein/plugin-probes',
+  '@skein/plugin-surge-waveforms',
+  '@skein/plugin-devices',
 ];
+
+/** The URL the standard specifiers resolve from (this package depends on each of them). */
+export const STANDARD_PLUGINS_BASE: string = import.meta.url;

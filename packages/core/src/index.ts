@@ -36,3 +36,5 @@ export {
   type ConformanceOptions, type ConformanceCheck, type ConformanceReport, type FakeProbeRig,
 } from './conformance/index.ts';
 export { NEWTON_MAX_ITERATIONS } from './run/newton.ts';
+export { runPartitioned, decidePartition, type ScenarioSource, type PartitionedOptions, type PartitionDecision } from './parallel/runPartitioned.ts';
+export { partitionNetwork, breadthFirstOrder, type Partition } from './parallel/partition.ts';

@@ -1,0 +1,209 @@
+/**
+ * Partitioned runs of one network on several threads (`skein run --threads N`). The network is
+ * split at lines (partition.ts); each worker steps its own junctions, waves cross between threads
+ * through shared ring buffers, and the threads meet only every K steps, K the shortest whole-step
+ * delay of a crossing line. This thread replays each finished block from the workers' history
+ * (parts, ledger, probes), so the results equal the single-thread run bit for bit: every
+ * junction does the same arithmetic in the same order on the same inputs.
+ */
+import { availableParallelism } from 'node:os';
+import { Worker } from 'node:worker_threads';
+import { compileScenario, type Plan } from '../compile/compile.ts';
+import { SkeinError } from '../errors.ts';
+import type { StructuredOutput } from '../plugins/api.ts';
+import type { PluginRegistry } from '../plugins/registry.ts';
+import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts';
+import { runPlan, type RunOptions, type RunResult, type StepDriver } from '../run/run.ts';
+import { partitionNetwork, type Partition } from './partition.ts';
+import { allocateShared, CONTROL_WORDS, DONE, ERROR, GO, historyRow } from './shared.ts';
+import type { WorkerInit } from './worker.ts';
+
+/** Where the workers get the scenario from (they resolve and compile it themselves). */
+export interface ScenarioSource {
+  text?: string;
+  data?: unknown;
+  file?: string;
+}
+
+/** Options of a partitioned run. */
+export interface PartitionedOptions extends Omit<RunOptions, 'driver'> {
+  /** Threads asked for. */
+  threads: number;
+  /** Smallest useful work per thread between two meetings [s] (default 1 ms): below it fewer threads are used. */
+  minBlockWorkS?: number;
+  /** Estimated cost of one line-end port update [s] (default 10 ns), for that decision. */
+  portCostS?: number;
+  /** History memory cap [bytes] (default 256 MiB): K is lowered to fit. */
+  maxHistoryBytes?: number;
+}
+
+/** How a partitioned run was set up, reported in the run's warnings and returned for tests. */
+export interface PartitionDecision {
+  asked: number;
+  used: number;
+  K: number;
+  crossing: number;
+  work: number[];
+  reason: string;
+}
+
+const WORKER_ENTRY = new URL('./worker.ts', import.meta.url).href;
+const BOOTSTRAP = new URL('./bootstrap.mjs', import.meta.url);
+
+/** Decides how many threads pay and the meeting interval. */
+export function decidePartition(plan: Plan, opts: PartitionedOptions): { partition: Partition | undefined; decision: PartitionDecision } {
+  const asked = Math.max(1, Math.floor(opts.threads));
+  const cores = availableParallelism();
+  const portCost = opts.portCostS ?? 10e-9;
+  const minWork = opts.minBlockWorkS ?? 1e-3;
+  const maxHist = opts.maxHistoryBytes ?? 256 * 1024 * 1024;
+  if (asked === 1) return { partition: undefined, decision: { asked, used: 1, K: 0, crossing: 0, work: [plan.nPorts], reason: 'one thread asked' } };
+  let best: Partition | undefined;
+  let reason = '';
+  for (let t = Math.min(asked, cores, plan.nJunctions); t >= 2; t--) {
+    const p = partitionNetwork(plan, t);
+    const perRow = 8 * 2 * (plan.x.length + plan.slot.length + plan.parts.length);
+    const K = Math.max(1, Math.min(p.K, Math.floor(maxHist / Math.max(1, perRow)), plan.nSteps + 1));
+    const blockWork = (K * portCost * Math.max(...p.work)) ;
+    if (blockWork >= minWork) {
+      best = { ...p, K };
+      break;
+    }
+    reason = `one block of ${K} steps is about ${(blockWork * 1e3).toFixed(3)} ms of work per thread with ${t} threads, below the ${(minWork * 1e3).toFixed(1)} ms a meeting of threads costs on a shared machine`;
+  }
+  if (!best) {
+    return { partition: undefined, decision: { asked, used: 1, K: 0, crossing: 0, work: [plan.nPorts], reason: reason || `only ${cores} core(s) or ${plan.nJunctions} junction(s)` } };
+  }
+  const used = best.threads;
+  const why = used < asked ? (used >= cores ? `this machine has ${cores} cores` : reason) : 'as asked';
+  return { partition: best, decision: { asked, used, K: best.K, crossing: best.crossing, work: best.work, reason: why } };
+}
+
+/**
+ * Runs a scenario partitioned over worker threads.
+ * @returns the run result (identical to the single-thread run) and the partition decision.
+ */
+export async function runPartitioned(source: ScenarioSource, opts: PartitionedOptions): Promise<RunResult & { partition: PartitionDecision }> {
+  const registry = opts.registry;
+  const resolve = () => source.text !== undefined
+    ? resolveScenarioText(source.text, { registry, file: source.file })
+    : resolveScenarioData(source.data, { registry, file: source.file });
+  const t0 = performance.now();
+  const probePlan = await compileScenario(resolve(), { registry, onWarning: opts.onWarning });
+  const { partition, decision } = decidePartition(probePlan, opts);
+  if (!partition) {
+    const r = await runPlan(probePlan, opts, (performance.now() - t0) / 1000);
+    if (decision.asked > 1) r.warnings.push(`ran on 1 thread of ${decision.asked} asked: ${decision.reason}`);
+    return Object.assign(r, { partition: decision });
+  }
+  const K = partition.K;
+  const plan = await compileScenario(resolve(), { registry, ringSlackSteps: 2 * K });
+  const compileS = (performance.now() - t0) / 1000;
+  const driver = partitionedDriver(plan, partition, source, registry);
+  const r = await runPlan(plan, { ...opts, driver }, compileS);
+  r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
+  return Object.assign(r, { partition: decision });
+}
+
+function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, registry: PluginRegistry): StepDriver {
+  const K = partition.K;
+  const T = partition.threads;
+  const layout = { K, nX: plan.x.length, nSlots: plan.slot.length, nParts: plan.parts.length, waveLength: plan.wave.length };
+  const shared = allocateShared(layout);
+  const loadOutputs: Record<string, StructuredOutput> = {};
+  const loadWarnings: string[] = [];
+  return {
+    loadResults: () => ({ outputs: loadOutputs, warnings: loadWarnings }),
+    async run(p, io) {
+      // This thread's plan reads the shared waves and, step by step, the workers' history.
+      const wave = new Float64Array(shared.wave);
+      p.wave = wave;
+      const xHist = new Float64Array(shared.xHist);
+      const slotHist = new Float64Array(shared.slotHist);
+      const nlHist = new Float64Array(shared.nlHist);
+      const control = new Int32Array(shared.control, 0, CONTROL_WORDS);
+      const workers: Worker[] = [];
+      const errors: Array<{ message: string; code?: string; details?: Record<string, unknown> }> = [];
+      const finished: Array<Promise<void>> = [];
+      const ready: Array<Promise<void>> = [];
+      for (let t = 0; t < T; t++) {
+        const init: WorkerInit = {
+          entry: WORKER_ENTRY, self: t, threads: T, K, ringSlackSteps: 2 * K, modules: [...registry.modules],
+          source: { text: source.text, data: source.data, file: source.file }, owner: partition.owner, shared,
+        };
+        const w = new Worker(BOOTSTRAP, { workerData: init });
+        workers.push(w);
+        let onReady: () => void = () => {};
+        ready.push(new Promise<void>((res) => { onReady = res; }));
+        finished.push(new Promise<void>((res) => {
+          w.on('message', (m: { type: string; outputs?: Record<string, StructuredOutput>; warnings?: string[]; message?: string; code?: string; details?: Record<string, unknown> }) => {
+            if (m.type === 'ready') onReady();
+            else if (m.type === 'finished') {
+              Object.assign(loadOutputs, m.outputs);
+              loadWarnings.push(...(m.warnings ?? []));
+              res();
+            } else if (m.type === 'error') {
+              errors.push({ message: m.message ?? 'worker failed', code: m.code, details: m.details });
+              onReady();
+              res();
+            }
+          });
+          w.on('error', (e) => {
+            errors.push({ message: e.message });
+            Atomics.store(control, ERROR, 1);
+            onReady();
+            res();
+          });
+          w.on('exit', () => { onReady(); res(); });
+        }));
+      }
+      const fail = (): never => {
+        const e = errors[0] ?? { message: 'a worker stopped' };
+        throw new SkeinError(e.code ?? 'E_WORKER', `partitioned run: ${e.message}`, e.details ?? {});
+      };
+      try {
+        await Promise.all(ready);
+        if (errors.length > 0) fail();
+        const nBlocks = Math.floor(p.nSteps / K) + 1;
+        const varyingLoads = [...p.varying.flatMap((v) => v.loads), ...p.nonlinear.flatMap((v) => v.varying)];
+        const replay = (b: number): void => {
+          const end = Math.min((b + 1) * K, p.nSteps + 1);
+          for (let n = b * K; n < end; n++) {
+            const h = historyRow(n, K);
+            p.x = xHist.subarray(h * layout.nX, (h + 1) * layout.nX);
+            p.slot = slotHist.subarray(h * layout.nSlots, (h + 1) * layout.nSlots);
+            p.nlCurrent = nlHist.subarray(h * layout.nParts, (h + 1) * layout.nParts);
+            const tS = n * p.dtS;
+            for (let k = 0; k < varyingLoads.length; k++) {
+              const l = varyingLoads[k];
+              l.part.g = l.instance.conductanceAt!(tS);
+            }
+            io.observe(n, false);
+          }
+        };
+        for (let b = 0; b < nBlocks; b++) {
+          Atomics.store(control, GO, b + 1);
+          Atomics.notify(control, GO);
+          if (b > 0) replay(b - 1);
+          const target = T * (b + 1);
+          const t1 = performance.now();
+          while (Atomics.load(control, DONE) < target) {
+            if (Atomics.load(control, ERROR) !== 0 || errors.length > 0) {
+              await Promise.all(finished);
+              fail();
+            }
+            Atomics.wait(control, DONE, Atomics.load(control, DONE), 50);
+          }
+          io.timing.junctions += performance.now() - t1;
+        }
+        replay(nBlocks - 1);
+        await Promise.all(finished);
+        if (errors.length > 0) fail();
+      } finally {
+        Atomics.store(control, ERROR, Atomics.load(control, ERROR) || 2);
+        Atomics.notify(control, GO);
+        await Promise.all(workers.map((w) => w.terminate()));
+      }
+    },
+  };
+}

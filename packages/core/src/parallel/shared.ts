@@ -1,0 +1,53 @@
+/**
+ * The shared memory of a partitioned run and its block protocol.
+ *
+ * Control words (Int32, SharedArrayBuffer): GO holds the number of blocks the workers may have
+ * finished; DONE counts finished worker-blocks; ERROR is set by a failing worker. Block b covers
+ * steps [b K, (b + 1) K). A worker waits until GO > b, steps its own junctions through block b,
+ * writes its node voltages, slots and device currents of every step into history buffer b mod 2,
+ * then adds 1 to DONE. The main thread releases block b + 1 as soon as DONE reaches
+ * workers * (b + 1) and replays block b from the history (parts, ledger, probes) while the workers
+ * compute b + 1. Waves cross partitions through the shared ring buffers: a line crossing threads
+ * has a delay of at least K steps, so a wave read in block b + 1 was written in block b or
+ * earlier, before the DONE that released b + 1 (Atomics order the accesses).
+ */
+
+export const GO = 0;
+export const DONE = 1;
+export const ERROR = 2;
+export const CONTROL_WORDS = 4;
+
+/** Buffers shared between the main thread and the workers. */
+export interface SharedBuffers {
+  control: SharedArrayBuffer;
+  wave: SharedArrayBuffer;
+  xHist: SharedArrayBuffer;
+  slotHist: SharedArrayBuffer;
+  nlHist: SharedArrayBuffer;
+}
+
+/** Sizes that fix the history layout: history h of step s in block b is at ((b % 2) * K + s - b K). */
+export interface HistoryLayout {
+  K: number;
+  nX: number;
+  nSlots: number;
+  nParts: number;
+  waveLength: number;
+}
+
+/** Allocates the shared buffers for a layout. */
+export function allocateShared(l: HistoryLayout): SharedBuffers {
+  return {
+    control: new SharedArrayBuffer(4 * CONTROL_WORDS),
+    wave: new SharedArrayBuffer(8 * l.waveLength),
+    xHist: new SharedArrayBuffer(8 * Math.max(1, 2 * l.K * l.nX)),
+    slotHist: new SharedArrayBuffer(8 * Math.max(1, 2 * l.K * l.nSlots)),
+    nlHist: new SharedArrayBuffer(8 * Math.max(1, 2 * l.K * l.nParts)),
+  };
+}
+
+/** Index of a step's row in the double-buffered history. */
+export function historyRow(step: number, K: number): number {
+  const b = Math.floor(step / K);
+  return (b % 2) * K + (step - b * K);
+}

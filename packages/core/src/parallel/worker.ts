@@ -1,0 +1,129 @@
+/**
+ * Worker side of a partitioned run: compiles the same scenario (deterministically, so the plan's
+ * layout matches the main thread's), takes the shared ring buffers, and steps only the junctions
+ * it owns, block by block (see shared.ts).
+ */
+import { parentPort, workerData } from 'node:worker_threads';
+import { compileScenario } from '../compile/compile.ts';
+import { SkeinError } from '../errors.ts';
+import { PluginRegistry, loadPluginModules } from '../plugins/registry.ts';
+import type { StructuredOutput } from '../plugins/api.ts';
+import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts';
+import { acceptNonlinear, phaseNonlinear } from '../run/newton.ts';
+import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSwitches } from '../run/step.ts';
+import { CONTROL_WORDS, DONE, ERROR, GO, historyRow, type SharedBuffers } from './shared.ts';
+
+/** What the main thread sends. */
+export interface WorkerInit {
+  entry: string;
+  self: number;
+  threads: number;
+  K: number;
+  ringSlackSteps: number;
+  modules: string[];
+  source: { text?: string; data?: unknown; file?: string };
+  owner: Int32Array;
+  shared: SharedBuffers;
+}
+
+async function main(init: WorkerInit): Promise<void> {
+  const control = new Int32Array(init.shared.control, 0, CONTROL_WORDS);
+  let blocksDone = 0;
+  try {
+    const registry = await loadPluginModules(new PluginRegistry(), init.modules);
+    const scenario = init.source.text !== undefined
+      ? resolveScenarioText(init.source.text, { registry, file: init.source.file })
+      : resolveScenarioData(init.source.data, { registry, file: init.source.file });
+    const plan = await compileScenario(scenario, { registry, ringSlackSteps: init.ringSlackSteps });
+    const warnStart = plan.warnings.length;
+    const wave = new Float64Array(init.shared.wave);
+    if (wave.length !== plan.wave.length) throw new SkeinError('E_BUG', `bug: worker plan has ${plan.wave.length} wave slots, main ${wave.length}`);
+    plan.wave = wave;
+    const own = new Uint8Array(plan.nJunctions);
+    for (let j = 0; j < plan.nJunctions; j++) own[j] = init.owner[j] === init.self ? 1 : 0;
+    // Only what this worker owns runs here.
+    const allRuns = kernelRuns(plan);
+    const runs: number[] = [];
+    for (let r = 0; r < allRuns.length; r += 3) {
+      let start = -1;
+      for (let j = allRuns[r]; j <= allRuns[r + 1]; j++) {
+        const mine = j < allRuns[r + 1] && own[j] === 1;
+        if (mine && start < 0) start = j;
+        if (!mine && start >= 0) { runs.push(start, j, allRuns[r + 2]); start = -1; }
+      }
+    }
+    const ownedRuns = Int32Array.from(runs);
+    plan.historyLoads = plan.historyLoads.filter((p) => own[p.part.junction] === 1);
+    plan.acceptLoads = plan.acceptLoads.filter((p) => own[p.part.junction] === 1);
+    plan.varying = plan.varying.filter((v) => own[v.junction] === 1);
+    plan.nonlinear = plan.nonlinear.filter((v) => own[v.junction] === 1);
+    const xRanges: number[] = [];
+    for (let j = 0; j < plan.nJunctions; j++) if (own[j]) xRanges.push(plan.jX[j], plan.jX[j + 1]);
+    const mySlots: number[] = [];
+    if (init.self === 0) for (const w of plan.waveforms) mySlots.push(w.slot);
+    for (const p of plan.historyLoads) mySlots.push(p.slot);
+    const myParts = plan.parts.filter((p) => own[p.part.junction] === 1 && p.mode === 'nonlinear').map((p) => p.index);
+    const nX = plan.x.length;
+    const nSlots = plan.slot.length;
+    const nParts = plan.parts.length;
+    const xHist = new Float64Array(init.shared.xHist);
+    const slotHist = new Float64Array(init.shared.slotHist);
+    const nlHist = new Float64Array(init.shared.nlHist);
+    const partV = new Float64Array(nParts);
+    const partI = new Float64Array(nParts);
+    const partU = new Float64Array(nParts);
+    const K = init.K;
+    const nBlocks = Math.floor(plan.nSteps / K) + 1;
+    parentPort!.postMessage({ type: 'ready' });
+    for (let b = 0; b < nBlocks; b++) {
+      while (Atomics.load(control, GO) <= b) {
+        if (Atomics.load(control, ERROR) !== 0) return;
+        Atomics.wait(control, GO, b, 1000);
+      }
+      const end = Math.min((b + 1) * K, plan.nSteps + 1);
+      for (let n = b * K; n < end; n++) {
+        const tS = n * plan.dtS;
+        const wf = plan.waveforms;
+        for (let w = 0; w < wf.length; w++) plan.slot[wf[w].slot] = wf[w].instance.value(tS);
+        const hl = plan.historyLoads;
+        for (let k = 0; k < hl.length; k++) plan.slot[hl[k].slot] = (hl[k].load as { history: () => number }).history();
+        if (plan.varying.length > 0) phaseSwitches(plan, tS);
+        phaseJunctions(plan, ownedRuns, n);
+        if (plan.nonlinear.length > 0) phaseNonlinear(plan, n, tS);
+        computeParts(plan, partV, partI, partU);
+        acceptParts(plan, tS, partV, partI);
+        if (plan.nonlinear.length > 0) acceptNonlinear(plan, tS);
+        const h = historyRow(n, K);
+        const xo = h * nX;
+        for (let r = 0; r < xRanges.length; r += 2) for (let i = xRanges[r]; i < xRanges[r + 1]; i++) xHist[xo + i] = plan.x[i];
+        const so = h * nSlots;
+        for (let k = 0; k < mySlots.length; k++) slotHist[so + mySlots[k]] = plan.slot[mySlots[k]];
+        const po = h * nParts;
+        for (let k = 0; k < myParts.length; k++) nlHist[po + myParts[k]] = plan.nlCurrent[myParts[k]];
+      }
+      blocksDone++;
+      Atomics.add(control, DONE, 1);
+      Atomics.notify(control, DONE);
+    }
+    const outputs: Record<string, StructuredOutput> = {};
+    const warnings: string[] = plan.warnings.slice(warnStart);
+    for (const w of plan.waveforms) if (init.self === 0) w.instance.finish?.();
+    for (const p of plan.parts) {
+      if (!p.load || own[p.part.junction] !== 1) continue;
+      try {
+        const out = p.load.finish?.();
+        if (out) outputs[p.part.id] = out;
+      } catch (e) {
+        warnings.push(`plugin ${p.part.type}, hook finish: ${(e as Error).message}`);
+      }
+    }
+    parentPort!.postMessage({ type: 'finished', outputs, warnings });
+  } catch (e) {
+    const err = e as SkeinError;
+    parentPort!.postMessage({ type: 'error', message: err.message, code: err.code, details: err.details, blocksDone });
+    Atomics.store(control, ERROR, 1);
+    Atomics.notify(control, DONE);
+  }
+}
+
+await main(workerData as WorkerInit);
