@@ -70,8 +70,8 @@ describe('runPartitioned', () => {
     let peak = 0;
     for (let i = 0; i < di.shape[0]; i++) peak = Math.max(peak, Math.abs(di.get(i)));
     expect(peak).toBeGreaterThan(1e-3);
-    expect(serial.outputs.D9).toBeDefined();
-    expect(JSON.stringify(parallel.outputs.D9)).toBe(JSON.stringify(serial.outputs.D9));
+    expect(serial.outputs["part:D9"]).toBeDefined();
+    expect(JSON.stringify(parallel.outputs["part:D9"])).toBe(JSON.stringify(serial.outputs["part:D9"]));
     expect(parallel.ledger).toEqual(serial.ledger);
   });
 

@@ -36,9 +36,25 @@ export function formatRunSummary(r: RunResult, outPath: string | undefined): str
     lines.push(`  delivered ${formatQuantity(l.deliveredJ, 'J')}, absorbed ${formatQuantity(l.absorbedJ, 'J')}, stored in lines ${formatQuantity(l.storedJ, 'J')}, ` +
       `residual ${l.residualJ.toExponential(2)} J (${l.deliveredJ !== 0 ? ((Math.abs(l.residualJ) / Math.abs(l.deliveredJ)) * 100).toExponential(1) : '0'} % of delivered)`);
   }
-  if (r.warnings.length > 0) {
+  const exceeded = r.warnings.filter((w) => w.includes('rating exceeded:'));
+  if (exceeded.length > 0) {
+    lines.push('', 'Devices whose rating was exceeded:');
+    for (const w of exceeded) lines.push(`  - ${w}`);
+  }
+  const devices = Object.entries(r.outputs).filter(([k, v]) => k.startsWith('part:') && typeof (v as { energyJ?: unknown }).energyJ === 'number');
+  if (devices.length > 0) {
+    lines.push('', 'Devices:');
+    const rows = [['part', 'energy', 'peak current', 'i2t']];
+    for (const [k, v] of devices) {
+      const d = v as { energyJ: number; peakCurrentA?: number; i2tA2s?: number };
+      rows.push([k.slice(5), formatQuantity(d.energyJ, 'J'), d.peakCurrentA !== undefined ? formatQuantity(d.peakCurrentA, 'A') : '-', d.i2tA2s !== undefined ? formatQuantity(d.i2tA2s, 'A2s') : '-']);
+    }
+    lines.push(table(rows).replace(/^/gm, '  '));
+  }
+  const others = r.warnings.filter((w) => !w.includes('rating exceeded:'));
+  if (others.length > 0) {
     lines.push('', 'Warnings:');
-    for (const w of r.warnings) lines.push(`  - ${w}`);
+    for (const w of others) lines.push(`  - ${w}`);
   }
   if (outPath) lines.push('', `Results: ${outPath}`);
   lines.push('', SAFETY_CAUTION);

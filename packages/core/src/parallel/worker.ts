@@ -112,7 +112,7 @@ async function main(init: WorkerInit): Promise<void> {
       if (!p.load || own[p.part.junction] !== 1) continue;
       try {
         const out = p.load.finish?.();
-        if (out) outputs[p.part.id] = out;
+        if (out) outputs[`part:${p.part.id}`] = out;
       } catch (e) {
         warnings.push(`plugin ${p.part.type}, hook finish: ${(e as Error).message}`);
       }

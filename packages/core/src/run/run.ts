@@ -144,7 +144,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
         if (!p.load) continue;
         safeFinish(() => {
           const out = p.load!.finish?.(failure);
-          if (out) outputs[p.part.id] = out;
+          if (out) outputs[`part:${p.part.id}`] = out;
         }, p.part.type, warnings);
       }
     }
