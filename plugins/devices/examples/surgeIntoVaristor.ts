@@ -37,4 +37,5 @@ for (let k = 0; k * dt <= ctx.endS; k++) {
 }
 const res = mov.finish?.() as { energyJ: number; peakCurrentA: number; i2tA2s: number };
 console.log(`clamp voltage ${vMax.toFixed(1)} V, peak current ${res.peakCurrentA.toFixed(1)} A, energy ${res.energyJ.toFixed(3)} J, i2t ${res.i2tA2s.toFixed(2)} A2s, Newton iterations per step <= ${iterationsMax}`);
+console.log(JSON.stringify(res));
 console.log(warnings.length ? warnings.join('\n') : 'no rating exceeded');

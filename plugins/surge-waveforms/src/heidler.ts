@@ -20,7 +20,7 @@ export function heidler(tS: number, tau1S: number, tau2S: number, n: number): nu
 /**
  * The correction factor of a Heidler function that makes I/k its approximate peak scale:
  * k = exp(-(tau1/tau2) (n tau2/tau1)^(1/n)) (the closed form quoted with IEC 61000-4-2 Annex B, from memory).
- * @example heidlerPeakFactor(1.1e-9, 2e-9, 1.8) // 0.4405
+ * @example heidlerPeakFactor(1.1e-9, 2e-9, 1.8) // 0.3455
  */
 export function heidlerPeakFactor(tau1S: number, tau2S: number, n: number): number {
   return Math.exp(-(tau1S / tau2S) * Math.pow((n * tau2S) / tau1S, 1 / n));
