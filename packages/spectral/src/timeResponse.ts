@@ -15,10 +15,13 @@
  *     (tau omega_max)^-4 and r(t) is added back exactly.
  *  4. y(t) = y_inf r(t) + (1/Tp) [Y_rem(0) + 2 Re sum_k w_k Y_rem(j omega_k) e^{j omega_k t}], with a
  *     Tukey window w_k (flat to fmax / 2, cosine taper to fmax) against Gibbs ringing.
- * This is the Fourier-series (FFT) route with the care the numerical Laplace transform (Wilcox
- * 1978; Wedepohl) takes by a damping shift: the load plugin hook `admittance(omega)` is known only on
- * the j omega axis, so the shift cannot be applied; the final-value removal and a period of several
- * observation windows (default 8) keep the wrap-around below the errors the README lists.
+ *  5. Period doubling: Tp starts at 8 times the last sample time and is doubled until two passes
+ *     agree to `tolerance` (default 1e-6 of the largest sample); the last change is reported as
+ *     the wrap-around estimate.
+ * This is the Fourier-series (FFT) route; the numerical Laplace transform (Wilcox 1978; Wedepohl)
+ * instead damps the tail by a shift sigma, which needs every element at complex frequency, but a
+ * load's `admittance(omega)` hook is known only on the j omega axis. The final-value removal and the
+ * period doubling take the place of the shift; the README lists the errors measured.
  */
 import { badInput, type PluginRegistry, type ResolvedScenario } from '@skein/core';
 import { assemble, compileNetwork, lineIndex, nodeIndex, solveAssembled, sourceRhs, type SpectralNetwork } from './network.ts';
@@ -35,11 +38,16 @@ export interface TimeResponseOptions {
    * 0.5 / time.step of the scenario.
    */
   maxFrequencyHz?: number;
-  /** Period Tp as a multiple of the last sample time (default 8, at least 2). */
+  /** Period Tp of the first pass as a multiple of the last sample time (default 8, at least 2). */
   periodFactor?: number;
   /** Spectral window (default 'tukey': flat to fmax / 2). */
   window?: 'tukey' | 'hann' | 'none';
-  /** Refuse more frequency points than this (default 400 000). */
+  /**
+   * Wrap-around tolerance, relative to the largest sample (default 1e-6): the period is doubled
+   * until two successive periods agree to it (or maxPoints is reached); 0 makes one pass.
+   */
+  tolerance?: number;
+  /** Most frequency points in one pass (default 400 000); the first pass must fit. */
   maxPoints?: number;
 }
 
@@ -47,7 +55,21 @@ export interface TimeResponseOptions {
 export interface TimeResponse {
   timesS: number[];
   series: Array<{ name: string; unit: string; values: Float64Array }>;
-  method: { periodS: number; maxFrequencyHz: number; points: number; window: string; tauS: number };
+  method: {
+    /** Period of the last pass [s]. */
+    periodS: number;
+    maxFrequencyHz: number;
+    /** Frequency points of the last pass. */
+    points: number;
+    window: string;
+    tauS: number;
+    /** Number of passes (periods tried). */
+    passes: number;
+    /** Largest change between the last two passes relative to the largest sample (NaN after one pass). */
+    wrapEstimate: number;
+    /** True when wrapEstimate <= tolerance (or one pass was asked for). */
+    converged: boolean;
+  };
 }
 
 /** In-place iterative radix-2 FFT (forward, e^{-j 2 pi k n / N}); N a power of two. */
@@ -168,16 +190,48 @@ export async function timeResponse(scenario: ResolvedScenario, registry: PluginR
     else throw badInput(['maxFrequencyHz'], 'must be given: the sources declare no shortest feature and the scenario sets no time.step', undefined, 'E_SPECTRAL_TIME');
   }
   if (!(fmax > 0 && Number.isFinite(fmax))) throw badInput(['maxFrequencyHz'], 'must be a frequency above 0 Hz', fmax, 'E_SPECTRAL_TIME');
-  const K = Math.ceil(fmax * periodS);
   const maxPoints = options.maxPoints ?? 400_000;
-  if (K > maxPoints) throw badInput(['maxFrequencyHz'], `gives ${K} frequency points over the period ${periodS} s, more than ${maxPoints}; lower it or the last sample time`, fmax, 'E_SPECTRAL_TIME');
   const windowKind = options.window ?? 'tukey';
+  const tolerance = options.tolerance ?? 1e-6;
+  if (!(tolerance >= 0)) throw badInput(['tolerance'], 'must be 0 (one pass) or a positive fraction', tolerance, 'E_SPECTRAL_TIME');
+  const outs = options.outputs.map((o, oi) => planTimeOutput(net, o, oi));
+  const first = Math.ceil(fmax * periodS);
+  if (first > maxPoints) throw badInput(['maxFrequencyHz'], `gives ${first} frequency points over the period ${periodS} s, more than ${maxPoints}; lower it or the last sample time`, fmax, 'E_SPECTRAL_TIME');
+  // Period doubling: the change between periods Tp and 2 Tp estimates the wrap-around of the tail.
+  let tp = periodS;
+  let prev = responseForPeriod(net, outs, times, tp, fmax, windowKind);
+  let points = prev.points;
+  let estimate = NaN;
+  let converged = tolerance === 0;
+  let passes = 1;
+  while (!converged && Math.ceil(fmax * 2 * tp) <= maxPoints) {
+    tp *= 2;
+    const next = responseForPeriod(net, outs, times, tp, fmax, windowKind);
+    passes++;
+    points = next.points;
+    let peak = 0;
+    let change = 0;
+    next.values.forEach((v, i) => v.forEach((x, q) => {
+      peak = Math.max(peak, Math.abs(x));
+      change = Math.max(change, Math.abs(x - prev.values[i][q]));
+    }));
+    estimate = change / (peak || 1);
+    prev = next;
+    converged = estimate <= tolerance;
+  }
+  const series = options.outputs.map((o, i) => ({ name: outputName(o), unit: o.kind === 'voltage' ? 'V' : 'A', values: prev.values[i] }));
+  return {
+    timesS: times, series,
+    method: { periodS: tp, maxFrequencyHz: fmax, points, window: windowKind, tauS: tp / 40, passes, wrapEstimate: estimate, converged },
+  };
+}
+
+/** One pass of the method over period Tp: the samples of every output at the given times. */
+function responseForPeriod(net: SpectralNetwork, outs: Reader[], times: number[], periodS: number, fmax: number, windowKind: string): { values: Float64Array[]; points: number } {
+  const K = Math.ceil(fmax * periodS);
   const dw = (2 * Math.PI) / periodS;
   const omegaEps = dw * 1e-4;
   const tau = periodS / 40;
-
-  // Readers for each output: value at the solution x of one frequency.
-  const outs = options.outputs.map((o, oi) => planTimeOutput(net, o, oi));
   const nOut = outs.length;
   const spectra = net.waveforms.map((_, w) => waveSpectrum(net, w, K, periodS, omegaEps));
   const noRemoved = new Array<boolean>(net.parts.length).fill(false);
@@ -224,8 +278,8 @@ export async function timeResponse(scenario: ResolvedScenario, registry: PluginR
       cIm[i * (K + 1) + k] = win * (y.im[i] - yInf[i] * ri);
     }
   }
-  const series = options.outputs.map((o, i) => {
-    const values = new Float64Array(times.length);
+  const values = outs.map((_, i) => {
+    const v = new Float64Array(times.length);
     times.forEach((t, q) => {
       // sum_k c_k e^{j k dw t} by a rotation recurrence, re-anchored every 64 terms.
       let s = 0;
@@ -239,11 +293,11 @@ export async function timeResponse(scenario: ResolvedScenario, registry: PluginR
       }
       const x = t / tau;
       const r = -Math.expm1(-x) - Math.exp(-x) * (x + (x * x) / 2 + (x * x * x) / 6);
-      values[q] = yInf[i] * r + (yRem0[i] + 2 * s) / periodS;
+      v[q] = yInf[i] * r + (yRem0[i] + 2 * s) / periodS;
     });
-    return { name: outputName(o), unit: o.kind === 'voltage' ? 'V' : 'A', values };
+    return v;
   });
-  return { timesS: times, series, method: { periodS, maxFrequencyHz: fmax, points: K + 1, window: windowKind, tauS: tau } };
+  return { values, points: K + 1 };
 }
 
 type Reader = (asm: ReturnType<typeof assemble>, x: { re: Float64Array; im: Float64Array }, phasors: Array<{ re: number; im: number } | null>) => [number, number];

@@ -112,4 +112,36 @@ probes:
     expect(Math.abs(at(6e-6) - 0.80109739)).toBeLessThan(1e-8);
     expect(Math.abs(sp.series[0].values[Math.round(1e-6 / dt)] - 0.66666667)).toBeLessThan(1e-8);
   });
+
+  it("gives Kelvin's RC cable, whose slow tail needs the period doubling", async () => {
+    // W. Thomson, Proc. Roy. Soc. 7, 1855; Carslaw & Jaeger, Conduction of Heat in Solids, ch. II
+    // (REFERENCES.md): v = erfc(x sqrt(RC / 4t)), R = 10 ohm/km, C = 50 nF/km, x = 10 km. The
+    // semi-infinite cable is 100 km long here (its far end adds erfc(19) ~ 1e-158 by 200 us);
+    // L = 1e-13 H/m (the format needs L > 0) changes v by about L / (R t) < 1e-6.
+    const s = resolveScenarioText(`
+skein: 1
+time: { end: 200us }
+lines:
+  a: { from: S, to: X, length: 10km, inductance: 1e-13H/m, capacitance: 50nF/km, resistance: 10ohm/km }
+  b: { from: X, to: E, length: 90km, inductance: 1e-13H/m, capacitance: 50nF/km, resistance: 10ohm/km }
+junctions:
+  S:
+    nodes: { s: [a] }
+    parts:
+      gen: { source: step, between: [s, ref], amplitude: 1 }
+  X: { nodes: { x: [a, b] } }
+  E: { nodes: { e: [b] } }
+`, { registry: reg, file: 'kelvin.yaml' });
+    const times = [12.5e-6, 50e-6, 200e-6];
+    const want = [0.15729921, 0.47950012, 0.72367361];
+    const outputs = [{ kind: 'voltage' as const, node: 'X.x' }];
+    const r = await timeResponse(s, reg, { outputs, timesS: times, maxFrequencyHz: 1e6 });
+    // Measured 8.6e-8 after 6 passes (period 51 ms); 1e-6 covers the L term above.
+    expect(maxAbs(r.series[0].values, want)).toBeLessThan(1e-6);
+    expect(r.method.converged).toBe(true);
+    expect(r.method.wrapEstimate).toBeLessThan(1e-6);
+    // One pass over 8 observation windows lets the cable's tail wrap around: 0.16 off.
+    const one = await timeResponse(s, reg, { outputs, timesS: times, maxFrequencyHz: 1e6, tolerance: 0 });
+    expect(maxAbs(one.series[0].values, want)).toBeGreaterThan(0.1);
+  });
 });
