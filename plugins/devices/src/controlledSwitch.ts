@@ -79,6 +79,13 @@ export class ControlledSwitchDevice {
     out[1] = g;
   }
 
+  /** Frequency-domain hook: admittance in the initial state, 1/R [S] (the controls act in time only). */
+  admittance(_omegaRadS: number, out: Float64Array): void {
+    const s = this.#s;
+    out[0] = s[G_FROM];
+    out[1] = 0;
+  }
+
   /** Step hook after convergence: the control logic and the meter. */
   accept(vV: number, iA: number, tS: number): void {
     const s = this.#s;

@@ -58,7 +58,7 @@ export class DiodeDevice extends JunctionDevice {
  * temperature [K, default 300], seriesResistance [ohm, default 0], junctionCapacitance [F, default 0],
  * and the ratings (ratedEnergy J, ratedCurrent A, ratedI2t A2s, currentThreshold A; optional).
  * Current flows plus (anode) to minus (cathode).
- * @example const d = create({ saturationCurrent: 1e-14, emissionCoefficient: 1, temperature: 300, seriesResistance: 0, junctionCapacitance: 0 }); d.evaluate(0.6, 0, out) // out[0] = 1.204e-4 A
+ * @example const d = create({ saturationCurrent: 1e-14, emissionCoefficient: 1, temperature: 300, seriesResistance: 0, junctionCapacitance: 0 }); d.evaluate(0.6, 0, out) // out[0] = 1.201e-4 A
  */
 export const diodeLoad = defineLoad({
   type: 'diode',

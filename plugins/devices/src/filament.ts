@@ -64,6 +64,12 @@ export class FilamentDevice {
     out[1] = g;
   }
 
+  /** Frequency-domain hook: admittance of the cold filament, 1/Rcold [S]. */
+  admittance(_omegaRadS: number, out: Float64Array): void {
+    out[0] = 1 / this.#s[R0];
+    out[1] = 0;
+  }
+
   /** Step hook after convergence: advances the temperature by the heat balance, and the meter. */
   accept(vV: number, iA: number, tS: number): void {
     const s = this.#s;

@@ -226,6 +226,30 @@ export abstract class JunctionDevice {
     m.record();
   }
 
+  /**
+   * Frequency-domain hook: small-signal admittance around 0 V at omega [rad/s],
+   * Y = 1 / (Rs + 1 / (j'(0) + j omega C)), real part into out[0], imaginary into out[1] [S].
+   */
+  admittance(omegaRadS: number, out: Float64Array): void {
+    const s = this.#s;
+    s[JX] = 0;
+    this.junction(s, JX);
+    const g = s[DJ];
+    const b = omegaRadS * this.#p[2];
+    const den = g * g + b * b;
+    if (den === 0) {
+      out[0] = 0;
+      out[1] = 0;
+      return;
+    }
+    // Z = Rs + (g - j b)/den; Y = conj(Z)/|Z|^2.
+    const zr = this.#p[0] + g / den;
+    const zi = -b / den;
+    const m = zr * zr + zi * zi;
+    out[0] = zr / m;
+    out[1] = -zi / m;
+  }
+
   /** Energy in the junction capacitance now [J]: C x^2 / 2. */
   storedEnergyJ(): number {
     const x = this.#s[XACC];

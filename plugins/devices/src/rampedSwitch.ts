@@ -68,6 +68,12 @@ export class RampedSwitchDevice {
     return Math.exp(-lnR);
   }
 
+  /** Frequency-domain hook: admittance at t = 0 (the schedule acts in time only) [S]. */
+  admittance(_omegaRadS: number, out: Float64Array): void {
+    out[0] = this.conductanceS;
+    out[1] = 0;
+  }
+
   /** Step hook after the solve: the meter. */
   accept(vV: number, iA: number, tS: number): void {
     const m = this.#meter;

@@ -87,6 +87,12 @@ export class SparkGapDevice {
     out[1] = (sa + sb) * s[GARC] + goff;
   }
 
+  /** Frequency-domain hook: small-signal admittance of the insulating gap, 1/Roff [S]. */
+  admittance(_omegaRadS: number, out: Float64Array): void {
+    out[0] = this.#s[GOFF];
+    out[1] = 0;
+  }
+
   #event(kind: number, t: number, v: number): void {
     const s = this.#s;
     const k = s[N_EVENTS];

@@ -158,6 +158,15 @@ export class VaristorDevice {
     return vNew < 0 ? -uL : uL;
   }
 
+  /** Frequency-domain hook: small-signal admittance around 0 V, di/dv(0) (0 for an exponent above 1) [S]. */
+  admittance(_omegaRadS: number, out: Float64Array): void {
+    const q = this.#q;
+    q[6] = 0;
+    this.#law();
+    out[0] = q[5];
+    out[1] = 0;
+  }
+
   /** Step hook after convergence: energy and peaks. */
   accept(vV: number, iA: number, tS: number): void {
     const m = this.#meter;

@@ -154,3 +154,18 @@ describe('tvsClampLoad', () => {
     expect(() => makeLoad(tvsClampLoad, { ...p, clampVoltage: 35 })).toThrow(/clampVoltage/);
   });
 });
+
+describe('DiodeDevice', () => {
+  it('gives the small-signal admittance 1/(Rs + 1/(Is/Vt + j omega C)) around 0 V', () => {
+    // Closed form of the linearised junction (g0 = Is/(n Vt)) with C in parallel and Rs in series.
+    const d = makeLoad(diodeLoad, { saturationCurrent: 1e-6, seriesResistance: 10, junctionCapacitance: 1e-9 });
+    const out = new Float64Array(2);
+    const w = 2 * Math.PI * 1e6;
+    d.admittance?.(w, out);
+    const g0 = 1e-6 / VT;
+    const zr = 10 + g0 / (g0 * g0 + (w * 1e-9) ** 2);
+    const zi = -(w * 1e-9) / (g0 * g0 + (w * 1e-9) ** 2);
+    expectClose('Re Y', out[0], zr / (zr * zr + zi * zi), 1e-9);
+    expectClose('Im Y', out[1], -zi / (zr * zr + zi * zi), 1e-9);
+  });
+});
