@@ -108,4 +108,26 @@ describe('runSweep', () => {
     expect(csv[6]).toMatch(/^5,[0-9a-f]{64},failed,-5ohm,,,,,,E_RANGE,/);
     expect(Number(csv[3].split(',')[4])).toBe(first.table.rows[2].outputs[0]);
   });
+
+  it('stops dispatching when its signal aborts, keeps the finished cases, and a second run computes only the rest', async () => {
+    const registry = await standardRegistry();
+    const dir = mkdtempSync(join(tmpdir(), 'skein-sweep-abort-'));
+    const spec = loadSweep(SWEEP, { readText: read });
+    const controller = new AbortController();
+    const first = await runSweep(spec, {
+      registry, workers: 0, cacheDir: join(dir, 'cache'),
+      onProgress: (p) => {
+        if (p.computed >= 2) controller.abort();
+      },
+      signal: controller.signal,
+    });
+    expect(first.interrupted).toBe(true);
+    expect(first.table.complete).toBe(false);
+    const done = first.counts.computed;
+    expect(done).toBeGreaterThanOrEqual(2);
+    expect(done).toBeLessThan(5);
+    const second = await runSweep(spec, { registry, workers: 0, cacheDir: join(dir, 'cache') });
+    expect(second.counts).toMatchObject({ cached: done, computed: 5 - done });
+    expect(second.table.complete).toBe(true);
+  });
 });
