@@ -10,7 +10,7 @@
  */
 import { badInput, defineLoad, type SetupContext } from '@skein/core';
 import { thermalVoltage } from './diode.ts';
-import { expArgMax, expLinear, JunctionDevice, limitExponentialStep } from './junction.ts';
+import { expArgMax, expLinear, JunctionDevice } from './junction.ts';
 import { RATING_PARAMS, type Ratings } from './meter.ts';
 
 /** Forward diode of a unidirectional TVS: Is [A] and n (common practice values for a power diode). */
@@ -62,12 +62,25 @@ export class TvsDevice extends JunctionDevice {
   }
 
   protected limitJunction(xNew: number, xOld: number): number {
+    // limitExponentialStep on the breakdown knee, then mirrored for the negative direction,
+    // written out: three calls of the helper here kept V8 from inlining it (boxed doubles).
     const q = this.#q;
-    const x = limitExponentialStep(xNew, xOld, q[2], q[6], q[1]);
-    if (x !== xNew) return x;
-    // Mirror for the negative direction.
-    if (q[3] === 1) return -limitExponentialStep(-xNew, -xOld, q[2], q[6], q[1]);
-    return -limitExponentialStep(-xNew, -xOld, q[5], q[7], 0);
+    const vs = q[2];
+    if (xNew > q[6] && xNew > xOld && xNew - xOld > 2 * vs) {
+      const base = xOld > q[1] ? xOld : q[1];
+      return xNew <= base ? xNew : base + vs * Math.log(1 + (xNew - base) / vs);
+    }
+    const bi = q[3] === 1;
+    const vt = bi ? vs : q[5];
+    const crit = bi ? q[6] : q[7];
+    const x0 = bi ? q[1] : 0;
+    const yN = -xNew;
+    const yO = -xOld;
+    if (yN > crit && yN > yO && yN - yO > 2 * vt) {
+      const base = yO > x0 ? yO : x0;
+      return yN <= base ? xNew : -(base + vt * Math.log(1 + (yN - base) / vt));
+    }
+    return xNew;
   }
 }
 
