@@ -3,6 +3,7 @@
  * way by the worker threads, the queue consumer and the in-thread runner, so every mode gives
  * the same numbers. A case's record travels as MessagePack bytes (plain types only).
  */
+import { threadId } from 'node:worker_threads';
 import { encodeResults, resolveScenarioData, resultsDocument, runScenario, SkeinError, type PluginRegistry } from '@skein/core';
 import { Packr, Unpackr } from 'msgpackr';
 import { outputValue } from './outputs.ts';
@@ -33,6 +34,8 @@ export interface CaseRecord {
   deterministic: boolean;
   /** Wall time of the run [s]. */
   elapsedS: number;
+  /** The thread that ran it (worker_threads threadId; 0 is the main thread). */
+  thread?: number;
   /** The run's results document as MessagePack, when asked for. */
   results?: Uint8Array;
 }
@@ -85,10 +88,10 @@ export async function runCase(registry: PluginRegistry, task: CaseTask): Promise
     const sc = resolveScenarioData(task.scenario, { registry });
     const r = await runScenario(sc, { registry });
     const outputs = task.outputs.map((o) => outputValue(r, o));
-    const rec: CaseRecord = { key: task.key, digest: task.digest, ok: true, outputs, deterministic: true, elapsedS: (performance.now() - t0) / 1000 };
+    const rec: CaseRecord = { key: task.key, digest: task.digest, ok: true, outputs, deterministic: true, elapsedS: (performance.now() - t0) / 1000, thread: threadId };
     if (task.keepResults) rec.results = encodeResults(resultsDocument(r));
     return rec;
   } catch (e) {
-    return failedRecord(task, e, (performance.now() - t0) / 1000);
+    return { ...failedRecord(task, e, (performance.now() - t0) / 1000), thread: threadId };
   }
 }
