@@ -138,6 +138,12 @@ export abstract class JunctionDevice {
       s[X] = v;
       return;
     }
+    if (!(v - v === 0)) {
+      // NaN or infinite voltage: no root to bracket; NaN lets the engine's finiteness check name the place.
+      s[J] = NaN;
+      s[DJ] = NaN;
+      return;
+    }
     const g = 1 / rs;
     // F increasing with F' >= 1/rs: bracket the root from the warm start, then safeguarded Newton.
     let x = s[X];
@@ -146,8 +152,10 @@ export abstract class JunctionDevice {
     let d = 0.1;
     s[JX] = x;
     this.#f();
+    // F' >= 1/rs bounds the root within |F(x)| rs of x: doubling from 0.1 V reaches any finite
+    // bracket in well under 1100 steps (2^1100 overflows).
     if (s[FV] > 0) {
-      for (;;) {
+      for (let e = 0; e < 1100; e++) {
         lo = x - d;
         s[JX] = lo;
         this.#f();
@@ -156,7 +164,7 @@ export abstract class JunctionDevice {
         d *= 2;
       }
     } else {
-      for (;;) {
+      for (let e = 0; e < 1100; e++) {
         hi = x + d;
         s[JX] = hi;
         this.#f();

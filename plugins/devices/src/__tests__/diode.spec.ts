@@ -169,3 +169,13 @@ describe('DiodeDevice', () => {
     expectClose('Im Y', out[1], -zi / (zr * zr + zi * zi), 1e-9);
   });
 });
+
+describe('JunctionDevice', () => {
+  it('returns NaN, not a hang, for a non-finite branch voltage', () => {
+    const d = makeLoad(diodeLoad, { seriesResistance: 1 });
+    expect(current(d, Number.NaN)).toBeNaN();
+    expect(current(d, Number.POSITIVE_INFINITY)).toBeNaN();
+    // and recovers on the next finite voltage (the warm start was not overwritten)
+    expectClose('after NaN', current(d, 0.5), IS * Math.expm1((0.5 - current(d, 0.5)) / VT), 1e-9);
+  });
+});
