@@ -48,6 +48,18 @@ describe('combinationWaveSource', () => {
     expect(w.value(0)).toBe(0);
   });
 
+  it('normalises its peaks with the constants IEC 61000-4-5 Annex A quotes (A = 1.037 and 0.01243 per us^3)', () => {
+    // IEC 61000-4-5:2014 Annex A (from memory): V = 1.037 Vp (1 - e^{-t/tau1}) e^{-t/tau2},
+    // I = 0.01243 Ip t^3 e^{-t/tau} (t in us). The plugin computes its factors in closed form;
+    // they must agree with the quoted ones to the quoted digits (half a unit in the last: 0.05 %).
+    const v = makeSource(combinationWaveSource, { waveform: 'open-circuit-voltage', peak: 1 });
+    const t = 10e-6;
+    within('voltage factor', v.value(t) / ((1 - Math.exp(-t / 0.4074e-6)) * Math.exp(-t / 68.22e-6)), 1.037, 5e-4);
+    const i = makeSource(combinationWaveSource, { waveform: 'short-circuit-current', peak: 1 });
+    const tu = 10; // us
+    within('current factor [1/us^3]', i.value(tu * 1e-6) / (tu ** 3 * Math.exp(-tu / 3.911)), 0.01243, 5e-4);
+  });
+
   it('is zero before its delay and shifted by it', () => {
     const w = makeSource(combinationWaveSource, { peak: 1, delay: 5e-6 });
     const w0 = makeSource(combinationWaveSource, { peak: 1 });
