@@ -27,7 +27,10 @@ const FIRST_T = 12;
 const T_IN = 13; // time for #g
 const G_OUT = 14; // conductance from #g
 
-/** Per-run object of the controlled switch. */
+/**
+ * Per-run object of the controlled switch.
+ * @example s.accept(120, 0, t) // control voltage, threshold 100 V, action close: s.closed becomes true
+ */
 export class ControlledSwitchDevice {
   readonly kind = 'nonlinear' as const;
   readonly #s = new Float64Array(15);

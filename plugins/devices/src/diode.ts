@@ -8,7 +8,7 @@ import { defineLoad, type SetupContext } from '@skein/core';
 import { expArgMax, expLinear, JunctionDevice, limitExponentialStep } from './junction.ts';
 import { RATING_PARAMS, type Ratings } from './meter.ts';
 
-/** Boltzmann constant / elementary charge [V/K] (CODATA 2018 exact values). */
+/** Boltzmann constant / elementary charge [V/K] (CODATA 2018 exact values). @example K_OVER_Q * 300 // 0.025852 V */
 export const K_OVER_Q = 1.380649e-23 / 1.602176634e-19;
 
 /**
@@ -20,14 +20,17 @@ export function thermalVoltage(temperatureK: number): number {
   return K_OVER_Q * temperatureK;
 }
 
-/** Parameters of a Shockley junction. */
+/** Parameters of a Shockley junction: Is [A], n [1], T [K]. @example { saturationCurrentA: 1e-14, emissionCoefficient: 1, temperatureK: 300 } */
 export interface ShockleyParams {
   saturationCurrentA: number;
   emissionCoefficient: number;
   temperatureK: number;
 }
 
-/** Per-run object of the diode (class so that its state stays private). */
+/**
+ * Per-run object of the diode (class so that its state stays private; hooks on the prototype).
+ * @example const d = diodeLoad.create(params, ctx) as DiodeDevice; d.evaluate(0.7, 0, out) // out[0] ~ 5.6 mA
+ */
 export class DiodeDevice extends JunctionDevice {
   readonly #q: Float64Array; // [Is, nVt, vcrit, scratch e, de, zMax]
 

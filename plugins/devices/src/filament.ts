@@ -23,7 +23,10 @@ const K = 6;
 const C_TH = 7;
 const T_PEAK = 8;
 
-/** Per-run object of the filament. */
+/**
+ * Per-run object of the filament.
+ * @example f.evaluate(120, 0, out) // cold: out[0] = 120 / coldResistance
+ */
 export class FilamentDevice {
   readonly kind = 'nonlinear' as const;
   readonly #s = new Float64Array(9);

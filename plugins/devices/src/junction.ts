@@ -15,7 +15,7 @@
 import type { SetupContext, StructuredOutput } from '@skein/core';
 import { DeviceMeter, finishDevice, type Ratings } from './meter.ts';
 
-/** Largest exponent argument before exponentials continue linearly (e^80 = 5.5e34; keeps i(v) finite and C1). */
+/** Largest exponent argument before exponentials continue linearly (e^80 = 5.5e34; keeps i(v) finite and C1). @example Math.exp(EXP_ARG_MAX) // 5.54e34 */
 export const EXP_ARG_MAX = 80;
 
 /**
@@ -81,7 +81,10 @@ const VIN = 6; // branch voltage to solve for
 const FV = 7; // F at s[JX]
 const N = 8;
 
-/** Base class of junction devices. Subclasses give the junction law and its Newton limiting. */
+/**
+ * Base class of junction devices. Subclasses give the junction law and its Newton limiting.
+ * @example class MyJunction extends JunctionDevice { protected junction(b, at) { ... } protected limitJunction(xn) { return xn; } }
+ */
 export abstract class JunctionDevice {
   readonly kind = 'nonlinear' as const;
   readonly #s = new Float64Array(N);

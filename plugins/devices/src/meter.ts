@@ -7,7 +7,7 @@
  */
 import type { SetupContext, StructuredOutput } from '@skein/core';
 
-/** The rating and threshold parameters every device takes (all optional). */
+/** The rating and threshold parameters every device takes (all optional). @example params: { myParam: {...}, ...RATING_PARAMS } */
 export const RATING_PARAMS = {
   ratedEnergy: { unit: 'J', optional: true, min: 0, exclusiveMin: true, summary: 'energy rating; absorbing more gives a "rating exceeded" warning' },
   ratedCurrent: { unit: 'A', optional: true, min: 0, exclusiveMin: true, summary: 'peak current rating; a larger peak gives a "rating exceeded" warning' },
@@ -15,7 +15,7 @@ export const RATING_PARAMS = {
   currentThreshold: { unit: 'A', optional: true, min: 0, exclusiveMin: true, summary: 'current magnitude whose time-above is reported' },
 } as const;
 
-/** The rating values as a factory receives them. */
+/** The rating values as a factory receives them (J, A, A2s, A). @example { ratedEnergy: 20, currentThreshold: 100 } */
 export interface Ratings {
   ratedEnergy?: number;
   ratedCurrent?: number;

@@ -22,7 +22,10 @@ const LN_OFF = 4;
 const LN_INS = 5;
 const LN_ON = 6;
 
-/** Per-run object of the ramped switch (schedule in a typed array: doubles in closures box). */
+/**
+ * Per-run object of the ramped switch (schedule in a typed array: doubles in closures box).
+ * @example sw.conductanceAt(closeAt + rampTime / 2) // 1 / sqrt(offResistance * onResistance) without pre-insertion
+ */
 export class RampedSwitchDevice {
   readonly kind = 'linear' as const;
   readonly conductanceS: number;

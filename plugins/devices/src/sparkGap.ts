@@ -34,7 +34,10 @@ const T_ON = 11; // time of the last breakdown
 const CONDUCTING_S = 12;
 const T_LAST = 13;
 
-/** Per-run object of the spark gap. */
+/**
+ * Per-run object of the spark gap.
+ * @example g.accept(100, 1e-7, t) // with sparkoverVoltage 90 V and no time lag: g.conducting becomes true
+ */
 export class SparkGapDevice {
   readonly kind = 'nonlinear' as const;
   readonly #s = new Float64Array(14);

@@ -17,7 +17,10 @@ import { RATING_PARAMS, type Ratings } from './meter.ts';
 const FORWARD_IS_A = 1e-12;
 const FORWARD_N = 1.5;
 
-/** Per-run object of the TVS clamp. */
+/**
+ * Per-run object of the TVS clamp.
+ * @example (tvsClampLoad.create({ breakdownVoltage: 33, clampVoltage: 53, peakPulseCurrent: 28, ... }, ctx) as TvsDevice).evaluate(53, 0, out) // out[0] ~ 28 A
+ */
 export class TvsDevice extends JunctionDevice {
   // [It, Vbr, Vs, bidirectional (1/0), Is_f, nVt_f, vcrit_br, vcrit_f, scratch e1, de1, e2, de2, zMax_br, zMax_f]
   readonly #q: Float64Array;

@@ -49,7 +49,10 @@ export function monotoneSlopes(x: ArrayLike<number>, y: ArrayLike<number>): Floa
   return m;
 }
 
-/** Per-run object of the varistor. */
+/**
+ * Per-run object of the varistor.
+ * @example (varistorLoad.create({ referenceVoltage: 470, referenceCurrent: 1e-3, exponent: 30 }, ctx) as VaristorDevice).evaluate(-470, 0, out) // out[0] = -1e-3 A
+ */
 export class VaristorDevice {
   readonly kind = 'nonlinear' as const;
   readonly #xs: Float64Array; // ln V knots (length 1 for a power law)

@@ -12,7 +12,7 @@
 import { defineSource } from '@skein/core';
 import { heidler } from './heidler.ts';
 
-/** One stroke's Heidler parameters at protection level I. */
+/** One stroke's Heidler parameters at protection level I: peak [A], k [1], tau1 [s], tau2 [s], n [1]. @example LIGHTNING_STROKES['first-positive'].tau2S // 485e-6 */
 export interface HeidlerStroke {
   peakA: number;
   k: number;
