@@ -29,7 +29,7 @@ export interface ShockleyParams {
 
 /**
  * Per-run object of the diode (class so that its state stays private; hooks on the prototype).
- * @example const d = diodeLoad.create(params, ctx) as DiodeDevice; d.evaluate(0.7, 0, out) // out[0] ~ 5.6 mA
+ * @example const d = diodeLoad.create(params, ctx) as DiodeDevice; d.evaluate(0.7, 0, out) // out[0] = 5.75 mA
  */
 export class DiodeDevice extends JunctionDevice {
   readonly #q: Float64Array; // [Is, nVt, vcrit, scratch e, de, zMax]
