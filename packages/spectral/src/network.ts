@@ -243,7 +243,11 @@ export function assemble(net: SpectralNetwork, omegaRadS: number, removed: reado
   const partYIm = new Float64Array(net.parts.length).fill(NaN);
   const out = new Float64Array(2);
   net.parts.forEach((np, k) => {
-    if (removed[k]) return;
+    if (removed[k]) {
+      // A removed ideal drive keeps its unknown, decoupled: current 0.
+      if (np.row >= 0) add(a, np.row, np.row, 1, 0);
+      return;
+    }
     const p = np.part;
     if (np.row >= 0) {
       add(a, np.plus, np.row, 1, 0);

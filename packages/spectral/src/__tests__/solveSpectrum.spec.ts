@@ -178,6 +178,22 @@ junctions:
   });
 });
 
+describe('solveSpectrum with an ideal voltage drive', () => {
+  it('delivers 1 / Zin out of the source terminal (constraint row of the nodal system)', async () => {
+    // Same lossy line, source resistance 0: V(S) = 1 V, current delivered = 1 / Zin (REFERENCES.md Zin).
+    const s = resolveScenarioText(LOSSY.replace('amplitude: 1, resistance: 50ohm', 'amplitude: 1'), { registry: reg, file: 'ideal.yaml' });
+    const r = await solveSpectrum(s, reg, { frequenciesHz: [10e6], outputs: [parseOutputSpec('v(S.s)'), parseOutputSpec('ip(gen)'), parseOutputSpec('z(S.s)')] });
+    const [v, i, z] = r.series;
+    expect(Math.abs(v.re[0] - 1)).toBeLessThan(1e-14);
+    expect(Math.abs(v.im[0])).toBeLessThan(1e-14);
+    const zr = 37.481952, zi = 27.182174, d = zr * zr + zi * zi;
+    // 1e-7: Zin is printed to 8 digits.
+    expect(Math.abs(i.re[0] - zr / d) / (zr / d)).toBeLessThan(1e-7);
+    expect(Math.abs(i.im[0] + zi / d) / (zi / d)).toBeLessThan(1e-7);
+    expect(Math.abs(z.re[0] - zr) / zr).toBeLessThan(1e-7);
+  });
+});
+
 describe('parseOutputSpec', () => {
   it('reads every output form and names a bad one', () => {
     expect(parseOutputSpec('h(L.l/S.s)')).toEqual({ kind: 'transfer', to: 'L.l', from: 'S.s' });

@@ -93,7 +93,7 @@ probes:
     const td = await runScenario(s, { registry: reg });
     const dt = td.dtS * td.recordEvery;
     const times = Array.from({ length: td.nSamples }, (_, i) => i * dt);
-    const sp = await timeResponse(s, reg, { outputs: [{ kind: 'voltage', node: 'S.s' }, { kind: 'voltage', node: 'L.l' }], timesS: times });
+    const sp = await timeResponse(s, reg, { outputs: [{ kind: 'voltage', node: 'S.s' }, { kind: 'voltage', node: 'L.l' }, { kind: 'current', line: 'tl', end: 'from' }], timesS: times });
     const trace = (name: string): Float64Array => {
       const i = td.traceNames.indexOf(name);
       return td.traces.data.subarray(i * td.nSamples, (i + 1) * td.nSamples);
@@ -112,6 +112,8 @@ probes:
     expect(Math.abs(at(4e-6) - 0.79012346)).toBeLessThan(1e-8);
     expect(Math.abs(at(6e-6) - 0.80109739)).toBeLessThan(1e-8);
     expect(Math.abs(sp.series[0].values[Math.round(1e-6 / dt)] - 0.66666667)).toBeLessThan(1e-8);
+    // Current into the line at the source: (1 - 2/3) / 25 ohm on the first plateau (Ohm's law).
+    expect(Math.abs(sp.series[2].values[Math.round(1e-6 / dt)] - 1 / 75)).toBeLessThan(1e-9);
   });
 
   it("gives Kelvin's RC cable, whose slow tail needs the period doubling", async () => {
