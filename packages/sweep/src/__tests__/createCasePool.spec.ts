@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { loadSweep, expandCases, createCasePool, runCase } from '../index.ts';
+import { loadSweep, expandCases, createCasePool, runCase, type CaseRecord } from '../index.ts';
 import { resolveScenarioData } from '@skein/core';
 import { BEWLEY_YAML, standardRegistry } from './fixtures.ts';
 
@@ -21,7 +21,7 @@ outputs:
     try {
       await pool.warm();
       const viaPool = await Promise.all(tasks.map((t) => pool.run(t)));
-      const here = [];
+      const here: CaseRecord[] = [];
       for (const t of tasks) here.push(await runCase(registry, t));
       // The set-ups differ: two worker threads did the work, the reference ran on the main thread.
       expect(new Set(viaPool.map((r) => r.thread)).size).toBe(2);
