@@ -7,7 +7,7 @@
  * algorithm with Wilkinson shifts (same book, sec. 7.4-7.5), eigenvectors by back-substitution on
  * the Schur form with the small-pivot guard of LAPACK's ztrevc (from memory).
  */
-import { SkeinError } from '@skein/core';
+import { eigenNoConvergence, singularMatrix, spectralBug } from './errors.ts';
 
 /** A dense complex matrix, rows x cols, row-major. */
 export interface CMatrix {
@@ -52,7 +52,7 @@ export function cIdentity(n: number): CMatrix {
  * @example cMul(cIdentity(2), x) // equals x
  */
 export function cMul(a: CMatrix, b: CMatrix): CMatrix {
-  if (a.cols !== b.rows) throw new SkeinError('E_BUG', `bug: cMul of ${a.rows}x${a.cols} by ${b.rows}x${b.cols}`);
+  if (a.cols !== b.rows) throw spectralBug(`cMul of ${a.rows}x${a.cols} by ${b.rows}x${b.cols}`);
   const out = cZeros(a.rows, b.cols);
   for (let i = 0; i < a.rows; i++) {
     for (let k = 0; k < a.cols; k++) {
@@ -81,7 +81,7 @@ export interface CLu {
 /**
  * LU factorisation with partial pivoting (Golub & Van Loan 4th ed., alg. 3.4.1).
  * @param a square matrix (not modified).
- * @throws NumericalError-like SkeinError E_SINGULAR (details.row) when a pivot is exactly zero.
+ * @throws SkeinError E_SINGULAR (details.row) when a pivot is exactly zero.
  * @example cLuSolve(cLu(a), b) // x with a x = b
  */
 export function cLu(a: CMatrix): CLu {
@@ -97,7 +97,7 @@ export function cLu(a: CMatrix): CLu {
       const m = Math.abs(re[i * n + k]) + Math.abs(im[i * n + k]);
       if (m > best) { best = m; p = i; }
     }
-    if (best === 0) throw new SkeinError('E_SINGULAR', `matrix is singular (no pivot in column ${k})`, { row: k });
+    if (best === 0) throw singularMatrix(k);
     if (p !== k) {
       for (let j = 0; j < n; j++) {
         let t = re[k * n + j]; re[k * n + j] = re[p * n + j]; re[p * n + j] = t;
@@ -288,7 +288,7 @@ export function cEigen(a: CMatrix): CEigen {
     if (l === hi) { hi--; iter = 0; continue; }
     iter++;
     total++;
-    if (total > 60 * n * n) throw new SkeinError('E_EIGEN_NO_CONVERGENCE', `complex eigen-decomposition of a ${n}x${n} matrix did not converge`, { n });
+    if (total > 60 * n * n) throw eigenNoConvergence(n);
     // Wilkinson shift: the eigenvalue of the trailing 2x2 nearer to its last diagonal entry.
     const ar = h.re[(hi - 1) * n + hi - 1], ai = h.im[(hi - 1) * n + hi - 1];
     const br = h.re[(hi - 1) * n + hi], bi = h.im[(hi - 1) * n + hi];

@@ -11,6 +11,7 @@ export {
 export { compileNetwork, nodeIndex, type SpectralNetwork } from './network.ts';
 export { toTouchstone, parseTouchstone, type TouchstoneOptions, type TouchstoneData } from './touchstone.ts';
 export { timeResponse, fft, type TimeResponseOptions, type TimeResponse } from './timeResponse.ts';
-export { lineBlock, type LineBlock } from './lineBlock.ts';
+export { lineBlock, lineModes, type LineBlock, type LineModes } from './lineBlock.ts';
+export { missingHook, singularNetwork, badTouchstone } from './errors.ts';
 export { cZeros, cFrom, cIdentity, cMul, cLu, cLuSolve, cInverse, cEigen, csqrt, type CMatrix, type CLu, type CEigen } from './complex.ts';
 export { parseSpectrumArgs, spectralSection, formatSpectrumTable, runSpectrumCommand, type SpectrumCommand } from './command.ts';

@@ -15,6 +15,7 @@ import {
   badInput, SkeinError, PluginError,
   type LoadInstance, type PluginRegistry, type ResolvedLine, type ResolvedPart, type ResolvedScenario, type SetupContext, type WaveformInstance,
 } from '@skein/core';
+import { missingHook, singularNetwork, spectralBug } from './errors.ts';
 import { cFrom, cLu, cLuSolve, cZeros, type CLu, type CMatrix } from './complex.ts';
 import { lineModes, type LineModes } from './lineBlock.ts';
 
@@ -95,7 +96,7 @@ export async function compileNetwork(scenario: ResolvedScenario, registry: Plugi
     for (const p of j.ports) (p.end === 0 ? lines[p.line].nodes0 : lines[p.line].nodes1)[p.conductor] = nodeOffset[ji] + p.node;
   });
   for (const l of lines) {
-    if ([...l.nodes0, ...l.nodes1].some((x) => x < 0)) throw new SkeinError('E_BUG', `bug: line ${l.line.id} has an unwired conductor after resolution`);
+    if ([...l.nodes0, ...l.nodes1].some((x) => x < 0)) throw spectralBug(`line ${l.line.id} has an unwired conductor after resolution`);
   }
   const dtS = scenario.time.stepS ?? scenario.time.endS / 1e4;
   const ctxFor = (id: string): SetupContext => ({ dtS, endS: scenario.time.endS, id, warn: () => undefined });
@@ -112,7 +113,7 @@ export async function compileNetwork(scenario: ResolvedScenario, registry: Plugi
         let w = waveformKeys.get(key);
         if (w === undefined) {
           const plugin = registry.sources.get(p.type)?.plugin;
-          if (!plugin) throw new SkeinError('E_BUG', `bug: source type ${p.type} passed resolution but is not registered`);
+          if (!plugin) throw spectralBug(`source type ${p.type} passed resolution but is not registered`);
           let inst: WaveformInstance;
           try {
             inst = await plugin.create(p.params as never, ctxFor(p.id));
@@ -127,7 +128,7 @@ export async function compileNetwork(scenario: ResolvedScenario, registry: Plugi
         parts.push({ part: p, plus, minus, waveform: w, row });
       } else {
         const plugin = registry.loads.get(p.type)?.plugin;
-        if (!plugin) throw new SkeinError('E_BUG', `bug: load type ${p.type} passed resolution but is not registered`);
+        if (!plugin) throw spectralBug(`load type ${p.type} passed resolution but is not registered`);
         let inst: LoadInstance;
         try {
           inst = await plugin.create(p.params as never, ctxFor(p.id));
@@ -135,11 +136,7 @@ export async function compileNetwork(scenario: ResolvedScenario, registry: Plugi
           throw new PluginError(p.type, 'create', e, { part: p.id });
         }
         if (inst.kind !== 'short' && typeof inst.admittance !== 'function') {
-          throw new SkeinError(
-            'E_SPECTRAL_HOOK_MISSING',
-            `part ${p.id}: load plugin ${p.type} has no frequency-domain hook "admittance"; a spectral run needs admittance(omegaRadS, out) on every load`,
-            { plugin: p.type, hook: 'admittance', part: p.id },
-          );
+          throw missingHook(p.type, 'admittance', p.id, 'load');
         }
         parts.push({ part: p, plus, minus, load: inst, row: inst.kind === 'short' ? size++ : -1 });
       }
@@ -203,7 +200,7 @@ export function stampAdmittance(m: CMatrix, p: number, q: number, re: number, im
  * Assembles and factors the MNA matrix at omega. Sources listed as null in `removed` are taken out;
  * all others keep their internal resistance (their EMF enters only the right-hand side).
  * `extraShunts` adds admittances from nodes to the reference (port terminations).
- * @throws NumericalError-like SkeinError E_SPECTRAL_SINGULAR naming the frequency.
+ * @throws NumericalError E_SPECTRAL_SINGULAR naming the frequency and the node.
  */
 export function assemble(net: SpectralNetwork, omegaRadS: number, removed: readonly boolean[], extraShunts: ReadonlyArray<{ node: number; re: number; im: number }> = []): Assembled {
   const a = cZeros(net.size);
@@ -282,7 +279,7 @@ export function assemble(net: SpectralNetwork, omegaRadS: number, removed: reado
     if (!(e instanceof SkeinError) || e.code !== 'E_SINGULAR') throw e;
     const row = (e.details.row as number) ?? 0;
     const where = row < net.nNodes ? `node ${net.nodeNames[row]}` : row < (net.lines[0]?.offset ?? net.size) ? 'a constraint row (an ideal voltage drive or short in a loop of others)' : 'the wave equations of a line';
-    throw new SkeinError('E_SPECTRAL_SINGULAR', `the network's nodal system is singular at ${(omegaRadS / (2 * Math.PI)).toPrecision(6)} Hz near ${where}; every node needs a path to the reference`, { frequencyHz: omegaRadS / (2 * Math.PI), row });
+    throw singularNetwork(omegaRadS / (2 * Math.PI), where, row);
   }
   return { omegaRadS, lu, modes, partYRe, partYIm };
 }

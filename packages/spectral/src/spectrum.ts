@@ -2,8 +2,9 @@
  * Frequency sweeps of a whole network: node voltages, line-end and part currents, transfer
  * functions, input impedance and S-parameters, as plain data for the results file's `spectral` key.
  */
-import { badInput, parseQuantity, SkeinError, type PluginRegistry, type ResolvedScenario } from '@skein/core';
+import { badInput, parseQuantity, type PluginRegistry, type ResolvedScenario } from '@skein/core';
 import { cZeros } from './complex.ts';
+import { missingHook } from './errors.ts';
 import { assemble, compileNetwork, lineIndex, nodeIndex, solveAssembled, sourceRhs, type Assembled, type SourceState, type SpectralNetwork } from './network.ts';
 
 /** What to compute at each frequency. Names default to the text form (`v(J.n)` etc.). */
@@ -173,7 +174,7 @@ export function solveNetworkSpectrum(net: SpectralNetwork, options: SpectrumOpti
   if (excitation === 'waveform') {
     for (const np of net.parts) {
       if (np.waveform !== undefined && typeof net.waveforms[np.waveform].laplace !== 'function') {
-        throw new SkeinError('E_SPECTRAL_HOOK_MISSING', `part ${np.part.id}: waveform plugin ${np.part.type} has no frequency-domain hook "laplace"; excitation 'waveform' needs laplace(sigma, omega, out) on every source`, { plugin: np.part.type, hook: 'laplace', part: np.part.id });
+        throw missingHook(np.part.type, 'laplace', np.part.id, 'waveform');
       }
     }
   }

@@ -110,6 +110,10 @@ interface WaveSpectrum {
   epsIm: number;
 }
 
+/**
+ * Spectrum of waveform w on omega_k = k 2 pi / Tp (k = 1..K) and at omegaEps (see step 1 above).
+ * Exported for the tests; not part of the public API.
+ */
 export function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS: number, omegaEps: number): WaveSpectrum {
   const inst = net.waveforms[w];
   const dw = (2 * Math.PI) / periodS;

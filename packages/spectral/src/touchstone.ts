@@ -6,7 +6,8 @@
  * adds the keywords [Version], [Number of Ports], [Two-Port Data Order], [Number of Frequencies],
  * [Reference] (one impedance per port), [Network Data] and [End].
  */
-import { badInput, SkeinError } from '@skein/core';
+import { badInput } from '@skein/core';
+import { badTouchstone } from './errors.ts';
 import type { SParameters } from './spectrum.ts';
 
 /** Options of toTouchstone. */
@@ -100,10 +101,11 @@ export interface TouchstoneData {
  * @example parseTouchstone(toTouchstone(sp), 2).frequenciesHz
  */
 export function parseTouchstone(text: string, ports?: number): TouchstoneData {
-  const fail = (line: number, why: string): never => { throw new SkeinError('E_TOUCHSTONE', `Touchstone line ${line}: ${why}`, { line }); };
+  const fail = (line: number, why: string): never => { throw badTouchstone(line, why); };
   let version: 1 | 2 = 1;
   let P = ports;
-  let unit = 1;
+  // Version 1 defaults: GHz, MA, R 50 (the specification's defaults).
+  let unit = 1e9;
   let format = 'MA';
   let refs: number[] | undefined;
   let r0 = 50;
