@@ -134,8 +134,9 @@ describe('rampedSwitchLoad', () => {
       sw.accept?.(10e3, 10e3 / 400, t);
     }
     const r = sw.finish?.() as { energyJ: number };
-    // From rest at t = 0 to 1.001 ms the meter ramps linearly to the first sample: add that half-step.
-    expectClose('energy', r.energyJ, (10e3 * 10e3) / 400 * (8e-3 + 1.001e-3 / 2), 1e-9);
+    // From rest at t = 0 to the first sample at 1.001 ms the step-centred product counts
+    // (v/2)(i/2) over that interval: a quarter of the power.
+    expectClose('energy', r.energyJ, (10e3 * 10e3) / 400 * (8e-3 + 1.001e-3 / 4), 1e-9);
   });
 
   it('rejects an insertion time without a pre-insertion resistance, naming the parameter', () => {
