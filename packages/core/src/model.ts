@@ -40,6 +40,11 @@ export interface ResolvedLine {
    * C(f), Z and Y); L and C above are then its high-frequency values.
    */
   section?: LineSection;
+  /**
+   * Cells of the FDTD (leapfrog) segment that steps this line, when it has losses (R or G) or asks
+   * for one (`fdtd: { cells }`); undefined for travelling-wave (method of characteristics) lines.
+   */
+  fdtdCells?: number;
   /** The section as written in the scenario (kept for the digest and reports). */
   sectionInput?: unknown;
   /** Where the line sits in the scenario document. */

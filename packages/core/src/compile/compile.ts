@@ -6,6 +6,7 @@
 import { LuDecomposition, Matrix, inverse } from 'ml-matrix';
 import { badInput, bug, PluginError, singularJunction } from '../errors.ts';
 import { decomposeLine, type ModalLine } from '../line/modal.ts';
+import { createFdtdLine, type FdtdLine } from './fdtd.ts';
 import type { ResolvedJunction, ResolvedPart, ResolvedScenario } from '../model.ts';
 import type { LinearLoadInstance, LoadInstance, NonlinearLoadInstance, SetupContext, WaveformInstance } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
@@ -20,6 +21,8 @@ export interface DelayInfo {
   /** Whole steps k and fraction f: delay = (k + f) dt (f = 0 when rounded). */
   k: number;
   f: number;
+  /** True when the line is stepped by an FDTD segment (k and f then only describe its delay). */
+  fdtd: boolean;
   /** |delay used - true delay| [s] (nonzero only with time.delays: round). */
   timingErrorS: number;
   /**
@@ -155,6 +158,8 @@ export interface Plan {
   acceptLoads: CompiledPart[];
   varying: VaryingJunction[];
   nonlinear: NonlinearJunction[];
+  /** FDTD segments (lossy lines). */
+  fdtd: FdtdLine[];
   /** Branch current of each nonlinear part at the last converged step [A], by part index. */
   nlCurrent: Float64Array;
   /** 1 where the junction is solved by Newton's method (outside the kernels). */
@@ -197,10 +202,6 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   };
   const { registry } = options;
   for (const l of scenario.lines) {
-    const key = l.R.some((x) => x !== 0) ? 'resistance' : l.G.some((x) => x !== 0) ? 'conductance' : undefined;
-    if (key) {
-      throw badInput([...l.path, key], 'must be zero or absent in the time domain: this solver version steps lossless lines (the frequency-domain solver takes losses)', 'nonzero', 'E_LOSSY_LATER', scenario.locate([...l.path, key]));
-    }
     if (l.section) warn(`line ${l.id}: the time-domain solver uses the section's high-frequency L and C; its conductor, dielectric and earth losses are left out`);
   }
   const modal = scenario.lines.map((l) => decomposeLine(l.L, l.C));
@@ -210,10 +211,11 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   let minWhere = '';
   scenario.lines.forEach((l, i) => {
     modal[i].velocities.forEach((v, m) => {
-      const d = l.lengthM / v;
+      // An FDTD segment's limit is one cell at the fastest mode (the Courant condition).
+      const d = l.fdtdCells !== undefined ? l.lengthM / l.fdtdCells / v : l.lengthM / v;
       if (d < minDelay) {
         minDelay = d;
-        minWhere = `line ${l.id}, mode ${m + 1}`;
+        minWhere = l.fdtdCells !== undefined ? `one FDTD cell of line ${l.id} at its mode ${m + 1} speed` : `line ${l.id}, mode ${m + 1}`;
       }
     });
   });
@@ -295,7 +297,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
         k = Math.floor(steps + 1e-9);
         f = steps - k;
         if (f < 1e-9) f = 0;
-        if (k < MIN_DELAY_STEPS) {
+        if (k < MIN_DELAY_STEPS && l.fdtdCells === undefined) {
           throw bug(`delay of ${l.id} mode ${m + 1} is ${steps} steps although the step was checked against the shortest delay`);
         }
       }
@@ -312,18 +314,18 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       const re = 1 - f + f * Math.cos(wdt);
       const im = -f * Math.sin(wdt);
       delays.push({
-        line: l.id, mode: m + 1, velocityMps: v, delayS: d, k, f,
+        line: l.id, mode: m + 1, velocityMps: v, delayS: d, k, f, fdtd: l.fdtdCells !== undefined,
         timingErrorS: Math.abs((k + f) * dtS - d),
         interpolationLoss: 1 - Math.hypot(re, im),
       });
     });
   });
-  const worstLoss = Math.max(0, ...delays.map((d) => d.interpolationLoss));
+  const worstLoss = Math.max(0, ...delays.filter((d) => !d.fdtd).map((d) => d.interpolationLoss));
   if (worstLoss > 0.01) {
     warn(`delay interpolation attenuates the sources' bandwidth (${formatQuantity(fBw, 'Hz')}) by up to ${(worstLoss * 100).toFixed(2)} %; a shorter time.step or lengths that are whole multiples of it reduce this`);
   }
   if (scenario.time.delays === 'round') {
-    const worst = delays.reduce((a, d) => (d.timingErrorS / d.delayS > a.timingErrorS / a.delayS ? d : a), delays[0]);
+    const worst = delays.filter((d) => !d.fdtd).concat(delays.slice(0, 1)).reduce((a, d) => (d.timingErrorS / d.delayS > a.timingErrorS / a.delayS ? d : a), delays[0]);
     if (worst.timingErrorS / worst.delayS > 0.01) warn(`rounding delays to whole steps changes ${worst.line} mode ${worst.mode} by ${((worst.timingErrorS / worst.delayS) * 100).toFixed(2)} %`);
   }
 
@@ -345,9 +347,19 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   const conductorX = new Int32Array(lineCondOff[scenario.lines.length] * 2).fill(-1);
 
   interface EndRef { line: number; end: 0 | 1; nodes: Int32Array }
-  const junctionEnds: EndRef[][] = scenario.junctions.map((j) => {
+  const fdtdEnds: EndRef[][] = scenario.junctions.map(() => []);
+  const junctionEnds: EndRef[][] = scenario.junctions.map((j, ji) => {
     const ends: EndRef[] = [];
     for (const p of j.ports) {
+      if (scenario.lines[p.line].fdtdCells !== undefined) {
+        let e = fdtdEnds[ji].find((x) => x.line === p.line && x.end === p.end);
+        if (!e) {
+          e = { line: p.line, end: p.end, nodes: new Int32Array(scenario.lines[p.line].conductors.length).fill(-1) };
+          fdtdEnds[ji].push(e);
+        }
+        e.nodes[p.conductor] = p.node;
+        continue;
+      }
       let e = ends.find((x) => x.line === p.line && x.end === p.end);
       if (!e) {
         e = { line: p.line, end: p.end, nodes: new Int32Array(scenario.lines[p.line].conductors.length).fill(-1) };
@@ -428,12 +440,27 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   const exCoefL: number[] = [];
   let nSlots = waveformDefs.length;
   const varying: VaryingJunction[] = [];
+  const fdtd: FdtdLine[] = [];
+  const fdtdOf = new Map<number, FdtdLine>();
+  for (const l of scenario.lines) {
+    if (l.fdtdCells === undefined) continue;
+    const vmax = Math.max(...modal[l.index].velocities);
+    const dz = l.lengthM / l.fdtdCells;
+    if (dtS > (dz / vmax) * (1 + 1e-12)) {
+      throw badInput([...l.path, 'fdtd', 'cells'], `gives cells of ${formatQuantity(dz, 'm')}, too short for the time step ${formatQuantity(dtS, 's')} (the Courant condition needs dt <= dz / v = ${formatQuantity(dz / vmax, 's')}); use fewer cells or a shorter step`, l.fdtdCells, 'E_FDTD_COURANT', scenario.locate([...l.path, 'fdtd', 'cells']));
+    }
+    const f = createFdtdLine(l, l.fdtdCells, dtS, nSlots);
+    nSlots += 2 * f.n;
+    fdtd.push(f);
+    fdtdOf.set(l.index, f);
+  }
 
   for (let ji = 0; ji < nJ; ji++) {
     const j = scenario.junctions[ji];
     const R = jRows[ji];
     const N = j.nodes.length;
     const A = new Float64Array(R * R);
+    const exStart = exRowL.length;
     const stamp = (a: number, b: number, g: number): void => {
       if (a >= 0) A[a * R + a] += g;
       if (b >= 0) A[b * R + b] += g;
@@ -467,6 +494,20 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       }
       q += n;
     }
+    // FDTD segment ends: Norton branches g to the reference, history currents through slots.
+    for (const e of fdtdEnds[ji]) {
+      const f = fdtdOf.get(e.line)!;
+      const n = f.n;
+      for (let k = 0; k < n; k++) {
+        const x = jX[ji] + e.nodes[k];
+        f.xEnd[e.end * n + k] = x;
+        conductorX[lineCondOff[e.line] * 2 + e.end * n + k] = x;
+        for (let b = 0; b < n; b++) A[e.nodes[k] * R + e.nodes[b]] += f.g[k * n + b];
+        exRowL.push(e.nodes[k]);
+        exSlotL.push(f.slotBase + e.end * n + k);
+        exCoefL.push(-1);
+      }
+    }
     // B (line-end Norton sources) and A (emitted waves), see junctionStep.ts.
     const M = jPort[ji + 1] - jPort[ji];
     q = 0;
@@ -483,7 +524,6 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     }
     // Lumped parts.
     let nextConstraint = N;
-    const exStart = exRowL.length;
     const varyingLoads: VaryingJunction['loads'] = [];
     const devices: NonlinearDevice[] = [];
     for (const p of j.parts) {
@@ -582,7 +622,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     mat, wave: new Float64Array(waveLen), rhs: new Float64Array(Math.max(1, maxR)), inc: new Float64Array(nPorts), x: new Float64Array(nX),
     parts,
     waveforms: waveformDefs.map((d, i) => ({ type: d.type, instance: waveformInstances[i], slot: i, parts: d.parts })),
-    historyLoads, acceptLoads, varying, nonlinear, jNonlinear, nlCurrent: new Float64Array(parts.length),
+    historyLoads, acceptLoads, varying, nonlinear, jNonlinear, fdtd, nlCurrent: new Float64Array(parts.length),
     work: new Float64Array(Math.max(1, 2 * maxR * maxR)),
   };
 }

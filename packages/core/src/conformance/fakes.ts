@@ -47,6 +47,8 @@ export function createFakeProbeRig(dtS: number, endS: number, id: string, phase 
     delivered: new Map<string, number>([['gen', 1 + phase]]),
     absorbed: new Map<string, number>([['gen', 0.1 + phase], ['load', 0.5 + phase]]),
     stored: new Map<string, number>([['line', 0.4 + phase]]),
+    lost: new Map<string, number>([['line', 0]]),
+    lostTotalJ: 0,
     deliveredTotalJ: 0,
     absorbedTotalJ: 0,
     storedTotalJ: 0,

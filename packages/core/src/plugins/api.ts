@@ -163,10 +163,13 @@ export interface LedgerView {
   readonly absorbed: ReadonlyMap<string, number>;
   /** Energy stored in each line now (line id -> J). */
   readonly stored: ReadonlyMap<string, number>;
+  /** Energy lost so far in each lossy line's R and G (line id -> J; lossless lines: 0). */
+  readonly lost: ReadonlyMap<string, number>;
   readonly deliveredTotalJ: number;
   readonly absorbedTotalJ: number;
   readonly storedTotalJ: number;
-  /** delivered - absorbed - stored [J]; zero up to rounding for integer delays. */
+  readonly lostTotalJ: number;
+  /** delivered - absorbed - stored - lost [J]; zero up to rounding for lossless lines with whole-step delays. */
   readonly residualJ: number;
 }
 

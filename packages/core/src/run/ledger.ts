@@ -7,14 +7,17 @@
  * energy is computed independently from the waves in flight,
  * E = sum_m (dt / Z_m) * sum over the k_m intervals in the line of (mean wave)^2, both directions.
  * With fractional delays the interpolated partial interval makes the balance approximate; the
- * residual is reported.
+ * residual is reported. FDTD segments (lossy lines) add their field energy (C V^2/2 + L I^2/2 on
+ * the grid) to `stored` and the energy dissipated in R and G to `lost`; their half-step stagger
+ * leaves a residual of the scheme's order.
  */
 import type { LedgerView } from '../plugins/api.ts';
 import type { Plan } from '../compile/compile.ts';
+import { fdtdStoredEnergy } from './fdtdPhase.ts';
 
 /** Ledger state kept during a run. */
 export interface Ledger {
-  view: { -readonly [K in keyof LedgerView]: LedgerView[K] } & { delivered: Map<string, number>; absorbed: Map<string, number>; stored: Map<string, number> };
+  view: { -readonly [K in keyof LedgerView]: LedgerView[K] } & { delivered: Map<string, number>; absorbed: Map<string, number>; stored: Map<string, number>; lost: Map<string, number> };
   prevV: Float64Array;
   prevI: Float64Array;
   prevU: Float64Array;
@@ -30,16 +33,21 @@ export function createLedger(plan: Plan): Ledger {
     delivered: new Map<string, number>(),
     absorbed: new Map<string, number>(),
     stored: new Map<string, number>(),
+    lost: new Map<string, number>(),
     deliveredTotalJ: 0,
     absorbedTotalJ: 0,
     storedTotalJ: 0,
+    lostTotalJ: 0,
     residualJ: 0,
   };
   for (const p of plan.parts) {
     if (p.part.role === 'source') view.delivered.set(p.part.id, 0);
     view.absorbed.set(p.part.id, 0);
   }
-  for (const l of plan.scenario.lines) view.stored.set(l.id, 0);
+  for (const l of plan.scenario.lines) {
+    view.stored.set(l.id, 0);
+    view.lost.set(l.id, 0);
+  }
   return {
     view,
     prevV: new Float64Array(nP),
@@ -100,7 +108,18 @@ function windowEnergy(wave: Float64Array, off: number, mask: number, n: number, 
 export function refreshLedgerView(plan: Plan, led: Ledger, n: number): LedgerView {
   const v = led.view;
   let stored = 0;
+  let lost = 0;
+  plan.fdtd.forEach((f, k) => {
+    const id = plan.scenario.lines[f.line].id;
+    const e = fdtdStoredEnergy(plan, k);
+    led.storedLineJ[f.line] = e;
+    v.stored.set(id, e);
+    v.lost.set(id, f.lostJ);
+    stored += e;
+    lost += f.lostJ;
+  });
   plan.scenario.lines.forEach((line, l) => {
+    if (line.fdtdCells !== undefined) return;
     const ml = plan.modal[l];
     let e = 0;
     for (let m = 0; m < ml.n; m++) {
@@ -127,6 +146,7 @@ export function refreshLedgerView(plan: Plan, led: Ledger, n: number): LedgerVie
   v.deliveredTotalJ = delivered;
   v.absorbedTotalJ = absorbed;
   v.storedTotalJ = stored;
-  v.residualJ = delivered - absorbed - stored;
+  v.lostTotalJ = lost;
+  v.residualJ = delivered - absorbed - stored - lost;
   return v;
 }

@@ -13,6 +13,7 @@ import type {
 import type { PluginRegistry } from '../plugins/registry.ts';
 import { accumulateLedger, createLedger, refreshLedgerView, type Ledger } from './ledger.ts';
 import { acceptNonlinear, phaseNonlinear } from './newton.ts';
+import { phaseFdtdAfter, phaseFdtdBefore } from './fdtdPhase.ts';
 import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSources, phaseSwitches } from './step.ts';
 
 /**
@@ -83,7 +84,7 @@ export interface RunResult {
   traces: NdArray<Float64Array>;
   outputs: Record<string, StructuredOutput>;
   peaks: TracePeak[];
-  ledger: { deliveredJ: number; absorbedJ: number; storedJ: number; residualJ: number } | undefined;
+  ledger: { deliveredJ: number; absorbedJ: number; storedJ: number; lostJ: number; residualJ: number } | undefined;
   warnings: string[];
   lines: LineDerived[];
   delays: DelayInfo[];
@@ -99,7 +100,7 @@ export interface NetworkSummary {
   probes: Array<{ id: string; type: string }>;
 }
 
-interface PointRec { line: number; kf: Int32Array; ff: Float64Array; kb: Int32Array; fb: Float64Array }
+interface PointRec { line: number; positionM: number; kf: Int32Array; ff: Float64Array; kb: Int32Array; fb: Float64Array }
 interface PortRec { line: number; end: number; conductor: number }
 
 const CHECK_EVERY = 1024;
@@ -190,7 +191,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
           const len = sc.lines[l].lengthM;
           if (!(positionM >= 0 && positionM <= len)) throw fail(param, `must lie on line ${line}, between 0 m and ${len} m`, positionM);
           const ml = plan.modal[l];
-          const rec: PointRec = { line: l, kf: new Int32Array(ml.n), ff: new Float64Array(ml.n), kb: new Int32Array(ml.n), fb: new Float64Array(ml.n) };
+          const rec: PointRec = { line: l, positionM, kf: new Int32Array(ml.n), ff: new Float64Array(ml.n), kb: new Int32Array(ml.n), fb: new Float64Array(ml.n) };
           for (let m = 0; m < ml.n; m++) {
             const d = plan.delays[plan.lineModeOff[l] + m];
             const total = d.k + d.f;
@@ -260,8 +261,24 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     const i1 = step - k;
     return (1 - f) * plan.wave[off + (i1 & mask)] + (f > 0 ? f * plan.wave[off + ((i1 - 1) & mask)] : 0);
   };
+  const fdtdByLine = new Map(plan.fdtd.map((f) => [f.line, f]));
   const pointWave = (h: PointHandle, k: number, current: boolean): number => {
     const rec = points[h];
+    const fd = fdtdByLine.get(rec.line);
+    if (fd) {
+      // FDTD segment: voltages on nodes, currents at cell centres (half a step older), linear in z.
+      const z = (rec.positionM / fd.dzM);
+      if (!current) {
+        const c = Math.min(fd.cells - 1, Math.floor(z));
+        const t = z - c;
+        return (1 - t) * fd.V[c * fd.n + k] + t * fd.V[(c + 1) * fd.n + k];
+      }
+      const zc = Math.min(fd.cells - 1, Math.max(0, z - 0.5));
+      const c = Math.min(fd.cells - 2, Math.floor(zc));
+      if (fd.cells === 1 || c < 0) return fd.I[k];
+      const t = zc - c;
+      return (1 - t) * fd.I[c * fd.n + k] + t * fd.I[(c + 1) * fd.n + k];
+    }
     const ml = plan.modal[rec.line];
     const n = ml.n;
     let acc = 0;
@@ -274,7 +291,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     return acc;
   };
   const emptyLedger: LedgerView = {
-    delivered: new Map(), absorbed: new Map(), stored: new Map(), deliveredTotalJ: 0, absorbedTotalJ: 0, storedTotalJ: 0, residualJ: 0,
+    delivered: new Map(), absorbed: new Map(), stored: new Map(), lost: new Map(), deliveredTotalJ: 0, absorbedTotalJ: 0, storedTotalJ: 0, lostTotalJ: 0, residualJ: 0,
   };
   const state: ProbeState = Object.freeze({
     get step() { return step; },
@@ -287,6 +304,8 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     },
     portCurrent: (h: PortHandle) => {
       const r = ports[h];
+      const fd = fdtdByLine.get(r.line);
+      if (fd) return fd.iEnd[r.end * fd.n + r.conductor];
       const ml = plan.modal[r.line];
       const n = ml.n;
       const p0 = plan.lineEndPort[2 * r.line + r.end];
@@ -308,7 +327,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     record: (trace: TraceHandle, value: number) => { traceData[trace * plan.nSamples + sample] = value; },
   });
 
-  const timing: Record<string, number> = { compile: compileS, sources: 0, switches: 0, junctions: 0, newton: 0, parts: 0, probes: 0 };
+  const timing: Record<string, number> = { compile: compileS, sources: 0, switches: 0, fdtd: 0, junctions: 0, newton: 0, parts: 0, probes: 0 };
   const progressEvery = Math.max(1, Math.floor(plan.nSteps / 100));
   const tStart = performance.now();
   const observe = (n: number, partsReady: boolean): void => {
@@ -351,7 +370,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
   let ledgerTotals: RunResult['ledger'];
   if (ledger) {
     const v = refreshLedgerView(plan, ledger, plan.nSteps);
-    ledgerTotals = { deliveredJ: v.deliveredTotalJ, absorbedJ: v.absorbedTotalJ, storedJ: v.storedTotalJ, residualJ: v.residualJ };
+    ledgerTotals = { deliveredJ: v.deliveredTotalJ, absorbedJ: v.absorbedTotalJ, storedJ: v.storedTotalJ, lostJ: v.lostTotalJ, residualJ: v.residualJ };
   }
   return {
     title: sc.title,
@@ -387,6 +406,12 @@ function serialDriver(runs: Int32Array): StepDriver {
           timing.switches += t1 - t2;
           t2 = t1;
         }
+        if (plan.fdtd.length > 0) {
+          phaseFdtdBefore(plan);
+          t1 = performance.now();
+          timing.fdtd += t1 - t2;
+          t2 = t1;
+        }
         phaseJunctions(plan, runs, n);
         t1 = performance.now();
         timing.junctions += t1 - t2;
@@ -395,6 +420,7 @@ function serialDriver(runs: Int32Array): StepDriver {
           t2 = performance.now();
           timing.newton += t2 - t1;
         }
+        if (plan.fdtd.length > 0) phaseFdtdAfter(plan);
         computeParts(plan, partV, partI, partU);
         acceptParts(plan, tS, partV, partI);
         if (plan.nonlinear.length > 0) acceptNonlinear(plan, tS);

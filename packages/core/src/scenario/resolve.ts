@@ -17,6 +17,9 @@ import { resolveSection } from './section.ts';
 /** The format version this engine reads. */
 export const SCENARIO_FORMAT_VERSION = 1;
 
+/** Cells of an FDTD segment when the scenario does not say (a lossy line). */
+export const DEFAULT_FDTD_CELLS = 40;
+
 /** Name of the reference node in every junction. */
 export const REFERENCE_NODE = 'ref';
 
@@ -163,7 +166,7 @@ function resolveTime(doc: LocatedDocument, v: unknown): ResolvedTime {
 function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number, junctionIndex: Map<string, number>, opts: ResolveOptions): ResolvedLine {
   const path = ['lines', id];
   const l = expectObj(doc, path, v, 'a mapping describing the line (from, to, length, and its matrices or section)');
-  checkKeys(doc, path, l, ['from', 'to', 'length', 'conductors', 'inductance', 'capacitance', 'resistance', 'conductance', 'impedance', 'velocity', 'section']);
+  checkKeys(doc, path, l, ['from', 'to', 'length', 'conductors', 'inductance', 'capacitance', 'resistance', 'conductance', 'impedance', 'velocity', 'section', 'fdtd']);
   const end = (key: 'from' | 'to'): number => {
     if (l[key] === undefined) throw doc.fail([...path, key], `is required: the junction at the line's ${key} end`, undefined, 'E_MISSING');
     const j = junctionIndex.get(String(l[key]));
@@ -237,7 +240,21 @@ function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number
   if (conductors.length !== n) throw doc.fail([...path, 'conductors'], `must name ${n} conductors, one per matrix row`, l.conductors, 'E_MATRIX');
   R ??= new Float64Array(n * n);
   G ??= new Float64Array(n * n);
-  return { id, index, from, to, lengthM, conductors, L, C, R, G, path, origin, section, sectionInput: section ? l.section : undefined };
+  let fdtdCells: number | undefined;
+  if (l.fdtd !== undefined) {
+    const f = expectObj(doc, [...path, 'fdtd'], l.fdtd, 'a mapping such as { cells: 200 }');
+    checkKeys(doc, [...path, 'fdtd'], f, ['cells']);
+    const c = f.cells ?? DEFAULT_FDTD_CELLS;
+    if (typeof c !== 'number' || !Number.isInteger(c) || c < 2 || c > 1e6) throw doc.fail([...path, 'fdtd', 'cells'], 'must be a whole number of cells from 2 to 1e6', c, 'E_RANGE');
+    fdtdCells = c;
+  } else if (R.some((x) => x !== 0) || G.some((x) => x !== 0)) {
+    fdtdCells = DEFAULT_FDTD_CELLS;
+  }
+  if (fdtdCells !== undefined && section) {
+    throw doc.fail([...path, 'fdtd'], 'is not available for a line given by a section in this version (the section\'s losses depend on frequency); give R, L, G, C matrices', l.fdtd ?? 'lossy section', 'E_FDTD_SECTION');
+  }
+  return {
+    fdtdCells, id, index, from, to, lengthM, conductors, L, C, R, G, path, origin, section, sectionInput: section ? l.section : undefined };
 }
 
 function velocity(doc: LocatedDocument, path: DocPath, v: unknown): number {
