@@ -15,7 +15,7 @@ junctions:
   B: { nodes: { p: [tl] } }
 `;
 
-describe('solveSpectrum S-parameters', () => {
+describe('solveSpectrum', () => {
   it('gives |S21| = 1 and phase -omega T for a matched lossless line', async () => {
     // Classic result (Pozar, Microwave Engineering, 4th ed., ch. 4, from memory): a line of Z0
     // between ports of reference Z0 has S11 = 0, S21 = exp(-j omega T).

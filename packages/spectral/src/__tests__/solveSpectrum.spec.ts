@@ -36,7 +36,7 @@ describe('solveSpectrum', () => {
   });
 });
 
-describe('solveSpectrum on the reference cases', () => {
+describe('solveSpectrum', () => {
   it('gives gamma and the input impedance of the lossy-line reference to 1e-8', async () => {
     // Same reference (Paul, MTL, frequency-domain chapter, from memory; REFERENCES.md).
     const s = resolveScenarioText(LOSSY, { registry: reg, file: 'lossy.yaml' });
@@ -178,7 +178,7 @@ junctions:
   });
 });
 
-describe('solveSpectrum with an ideal voltage drive', () => {
+describe('solveSpectrum', () => {
   it('delivers 1 / Zin out of the source terminal (constraint row of the nodal system)', async () => {
     // Same lossy line, source resistance 0: V(S) = 1 V, current delivered = 1 / Zin (REFERENCES.md Zin).
     const s = resolveScenarioText(LOSSY.replace('amplitude: 1, resistance: 50ohm', 'amplitude: 1'), { registry: reg, file: 'ideal.yaml' });
