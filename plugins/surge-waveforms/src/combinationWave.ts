@@ -61,6 +61,24 @@ export const combinationWaveSource = defineSource({
       s[1] = p.peak / (27 * tau * tau * tau * Math.exp(-3));
       s[2] = 1 / tau;
       return {
+        // W(s) = A 6 / (s + 1/tau)^4 e^{-s delay}.
+        laplace(sigma: number, omega: number, out: Float64Array): void {
+          const re = sigma + s[2];
+          // (re + j omega)^-4 by squaring twice, then the delay factor.
+          const r2 = re * re - omega * omega;
+          const i2 = 2 * re * omega;
+          const r4 = r2 * r2 - i2 * i2;
+          const i4 = 2 * r2 * i2;
+          const m = r4 * r4 + i4 * i4;
+          const k = 6 * s[1];
+          const dr = Math.exp(-sigma * s[0]);
+          const c = dr * Math.cos(omega * s[0]);
+          const d = -dr * Math.sin(omega * s[0]);
+          const wr = (k * r4) / m;
+          const wi = (-k * i4) / m;
+          out[0] = wr * c - wi * d;
+          out[1] = wr * d + wi * c;
+        },
         shortestFeatureS: 8e-6,
         settledAfterS: p.delay + SETTLE * 4 * tau,
         value(tS: number): number {
@@ -78,6 +96,20 @@ export const combinationWaveSource = defineSource({
     s[2] = 1 / a;
     s[3] = 1 / b;
     return {
+      // (1 - e^{-t/a}) e^{-t/b} = e^{-t/b} - e^{-t(1/a + 1/b)}: W(s) = A (1/(s + 1/b) - 1/(s + 1/a + 1/b)) e^{-s delay}.
+      laplace(sigma: number, omega: number, out: Float64Array): void {
+        const p = sigma + s[3];
+        const q = sigma + s[2] + s[3];
+        const mp = p * p + omega * omega;
+        const mq = q * q + omega * omega;
+        const wr = s[1] * (p / mp - q / mq);
+        const wi = s[1] * (-omega / mp + omega / mq);
+        const dr = Math.exp(-sigma * s[0]);
+        const c = dr * Math.cos(omega * s[0]);
+        const d = -dr * Math.sin(omega * s[0]);
+        out[0] = wr * c - wi * d;
+        out[1] = wr * d + wi * c;
+      },
       shortestFeatureS: 1.2e-6,
       settledAfterS: p.delay + SETTLE * b,
       value(tS: number): number {

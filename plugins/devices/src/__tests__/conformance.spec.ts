@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
-// The suite is core's; this relative import becomes `from '@skein/core'` once core's index.ts exports it.
-import { checkPluginConformance, formatConformanceFailures } from '../../../../packages/core/src/conformance/index.ts';
+import { checkPluginConformance, formatConformanceFailures } from '@skein/core';
 
 // Parameters as the factories receive them (SI numbers): a 1 V-scale varistor and spark gap so that
 // the suite's drive (sin, +-1 V, in the allocation check) crosses their knees and exercises every branch of the step hooks.

@@ -1,6 +1,5 @@
 import { describe, expect, it } from 'vitest';
-// The suite is core's; this relative import becomes `from '@skein/core'` once core's index.ts exports it.
-import { checkPluginConformance, formatConformanceFailures } from '../../../../packages/core/src/conformance/index.ts';
+import { checkPluginConformance, formatConformanceFailures } from '@skein/core';
 
 describe('checkPluginConformance', () => {
   it('passes every check for @skein/plugin-surge-waveforms, loaded by its package name in a worker', async () => {

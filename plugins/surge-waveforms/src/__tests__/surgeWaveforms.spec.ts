@@ -60,6 +60,31 @@ describe('combinationWaveSource', () => {
     within('current factor [1/us^3]', i.value(tu * 1e-6) / (tu ** 3 * Math.exp(-tu / 3.911)), 0.01243, 5e-4);
   });
 
+  it('gives its Laplace transform in closed form, equal to a numerical integral of w(t) e^{-st}', () => {
+    // Definition W(s) = int_0^inf w(t) e^{-st} dt, by the trapezoidal rule over 2 ms with 2e6
+    // steps (h = 1 ns; the integrand's scale is >= 0.4 us, so the O(h^2) error is below 1e-6).
+    for (const waveform of ['open-circuit-voltage', 'short-circuit-current']) {
+      const w = makeSource(combinationWaveSource, { waveform, peak: 1, delay: 2e-6 });
+      for (const [sigma, omega] of [[1e4, 0], [2e4, 2 * Math.PI * 50e3], [0, 2 * Math.PI * 200e3]]) {
+        const n = 2_000_000;
+        const h = 2e-3 / n;
+        let re = 0;
+        let im = 0;
+        for (let k = 0; k <= n; k++) {
+          const t = k * h;
+          const c = k === 0 || k === n ? 0.5 : 1;
+          const f = c * w.value(t) * Math.exp(-sigma * t);
+          re += f * Math.cos(omega * t);
+          im -= f * Math.sin(omega * t);
+        }
+        const out = new Float64Array(2);
+        w.laplace?.(sigma, omega, out);
+        const scale = Math.hypot(re * h, im * h);
+        expect(Math.hypot(out[0] - re * h, out[1] - im * h) / scale, `${waveform} at s = ${sigma} + j${omega}`).toBeLessThan(1e-5);
+      }
+    }
+  });
+
   it('is zero before its delay and shifted by it', () => {
     const w = makeSource(combinationWaveSource, { peak: 1, delay: 5e-6 });
     const w0 = makeSource(combinationWaveSource, { peak: 1 });
