@@ -5,7 +5,7 @@
  */
 import { readFileSync } from 'node:fs';
 import { dirname, resolve } from 'node:path';
-import { InputError, parseLocatedDocument, parseQuantity, plainDocument, type DocPath, type LocatedDocument, type UnitSymbol } from '@skein/core';
+import { InputError, parseLocatedDocument, parseQuantity, plainDocument, type DocPath, type LocatedDocument, type SourceLocation, type UnitSymbol } from '@skein/core';
 import { checkSettable, parseValuePath } from './paths.ts';
 
 /** The sweep file format version this package reads. */
@@ -63,6 +63,8 @@ export interface SweepSpec {
   seed: number;
   parameters: ParameterSpec[];
   outputs: OutputSpec[];
+  /** For an inline scenario: where a path inside it sits in the sweep file. */
+  locateScenario?: (path: DocPath) => SourceLocation;
 }
 
 /** Options of loadSweep. */
@@ -158,7 +160,8 @@ function validateSweep(doc: LocatedDocument, options: LoadSweepOptions): SweepSp
   const probeIds = isObj(scenario) && isObj(scenario.probes) ? new Set(Object.keys(scenario.probes)) : new Set<string>();
   const outputs = Object.entries(root.outputs).map(([name, ov]) => output(doc, name, ov, probeIds, parameters));
   const title = typeof root.title === 'string' ? root.title : (options.file ?? 'sweep');
-  return { title, file: options.file, scenario, scenarioText, scenarioFile, combine, seed, parameters, outputs };
+  const locateScenario = scenarioText === undefined ? (path: DocPath) => doc.locate(['scenario', ...path]) : undefined;
+  return { title, file: options.file, scenario, scenarioText, scenarioFile, combine, seed, parameters, outputs, locateScenario };
 }
 
 function readBase(doc: LocatedDocument, v: unknown, options: LoadSweepOptions): { scenario: unknown; scenarioText?: string; scenarioFile?: string } {

@@ -7,7 +7,7 @@
 import { copyFileSync, existsSync, mkdirSync, readFileSync } from 'node:fs';
 import { availableParallelism } from 'node:os';
 import { join, relative } from 'node:path';
-import { digestOf, ENGINE_VERSION, resolveScenarioData, resolveScenarioText, writeFileAtomic, type PluginRegistry } from '@skein/core';
+import { digestOf, ENGINE_VERSION, InputError, resolveScenarioData, resolveScenarioText, writeFileAtomic, type PluginRegistry } from '@skein/core';
 import { decodeCaseRecord, encodeCaseRecord, failedRecord, type CaseRecord, type CaseTask } from './caseRun.ts';
 import { caseCount, caseMaker } from './expand.ts';
 import { createCasePool } from './pool.ts';
@@ -87,7 +87,15 @@ export async function runSweep(spec: SweepSpec, options: RunSweepOptions): Promi
   const { registry } = options;
   // The base scenario must be valid on its own: its errors point into its own file.
   if (spec.scenarioText !== undefined) resolveScenarioText(spec.scenarioText, { registry, file: spec.scenarioFile });
-  else resolveScenarioData(spec.scenario, { registry, file: spec.file ? `${spec.file} (scenario)` : undefined });
+  else {
+    try {
+      resolveScenarioData(spec.scenario, { registry, file: spec.file });
+    } catch (e) {
+      // An inline scenario's error points into the sweep file, under `scenario`.
+      if (e instanceof InputError && spec.locateScenario) throw new InputError(e.code, ['scenario', ...e.path], e.rule, e.value, spec.locateScenario(e.path));
+      throw e;
+    }
+  }
 
   const makeCase = caseMaker(spec);
   const nAll = caseCount(spec);

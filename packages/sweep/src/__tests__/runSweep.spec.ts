@@ -130,4 +130,46 @@ describe('runSweep', () => {
     expect(second.counts).toMatchObject({ cached: done, computed: 5 - done });
     expect(second.table.complete).toBe(true);
   });
+
+  it('records a case whose output does not exist as failed with E_OUTPUT, and caches that failure', async () => {
+    const registry = await standardRegistry();
+    const dir = mkdtempSync(join(tmpdir(), 'skein-sweep-out-'));
+    const spec = loadSweep(`sweep: 1
+scenario: bewley.yaml
+parameters:
+  RL: { path: junctions.L.parts.RL.resistance, values: [50, 100] }
+outputs:
+  missing: { output: led, path: totals.nothing }
+`, { readText: read });
+    const out = await runSweep(spec, { registry, workers: 0, cacheDir: join(dir, 'c') });
+    expect(out.table.rows.map((r) => r.error?.code)).toEqual(['E_OUTPUT', 'E_OUTPUT']);
+    expect(out.table.rows[0].error?.message).toContain('output missing: probe led output at totals.nothing is not a number');
+    const again = await runSweep(spec, { registry, workers: 0, cacheDir: join(dir, 'c') });
+    expect(again.counts).toMatchObject({ cached: 2, computed: 0, failed: 2 });
+  });
+
+  it('locates an error of an inline base scenario in the sweep file', async () => {
+    const registry = await standardRegistry();
+    const text = `sweep: 1
+scenario:
+  skein: 1
+  time: { end: 1us }
+  lines:
+    tl: { from: S, to: L, length: -2m, impedance: 50ohm, velocity: 2e8m/s }
+  junctions:
+    S: { nodes: { s: [tl] }, parts: { g: { source: step, between: [s, ref], amplitude: 1, resistance: 50ohm } } }
+    L: { nodes: { l: [tl] }, parts: { r: { load: resistor, between: [l, ref], resistance: 50ohm } } }
+  probes:
+    v: { probe: node-voltage, node: L.l }
+parameters:
+  R: { path: junctions.L.parts.r.resistance, values: [10] }
+outputs:
+  p: { peak: v.v }
+`;
+    const spec = loadSweep(text, { file: 'inline.yaml' });
+    await expect(runSweep(spec, { registry, workers: 0 })).rejects.toMatchObject({
+      path: ['scenario', 'lines', 'tl', 'length'],
+      location: { file: 'inline.yaml', line: 6 },
+    });
+  });
 });
