@@ -2,6 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { spawn, spawnSync, type ChildProcess } from 'node:child_process';
 import { createServer } from 'node:net';
 import { Redis } from 'ioredis';
+import { Queue } from 'bullmq';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
@@ -113,9 +114,18 @@ describe('sweepCommand', () => {
     const msgs: string[] = [];
     const io = { out: (s: string) => msgs.push(s), err: (s: string) => msgs.push(s) };
     const opts = { buildRegistry: async () => registry, progressStream: { write: () => true } };
-    const consumer = sweepCommand(['--worker-of', url, '--queue-name', 'q-cli', '--workers', '1', '--idle-exit', '4'], io, opts);
-    const producer = await sweepCommand([join(dir, 'scan.yaml'), '--queue', url, '--queue-name', 'q-cli', '--no-cache'], io, opts);
-    expect(producer, msgs.join('\n')).toBe(0);
+    const producer = sweepCommand([join(dir, 'scan.yaml'), '--queue', url, '--queue-name', 'q-cli', '--no-cache'], io, opts);
+    // The consumer starts once the producer has queued work, so that its idle clock (3 s without
+    // a case) cannot run out before the first case however slow the machine is.
+    const q = new Queue('q-cli', { connection: { host: '127.0.0.1', port: Number(new URL(url).port) } });
+    const deadline = Date.now() + 30_000;
+    while ((await q.count()) === 0) {
+      if (Date.now() > deadline) throw new Error(`the producer queued nothing in 30 s: ${msgs.join('\n')}`);
+      await new Promise((r) => setTimeout(r, 50));
+    }
+    await q.close();
+    const consumer = sweepCommand(['--worker-of', url, '--queue-name', 'q-cli', '--workers', '1', '--idle-exit', '3'], io, opts);
+    expect(await producer, msgs.join('\n')).toBe(0);
     expect(await consumer, msgs.join('\n')).toBe(0);
     expect(msgs.join('\n')).toContain('consumer stopped after 4 cases');
     const t = readTable(join(dir, 'scan.table.msgpack'));
