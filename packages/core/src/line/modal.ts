@@ -29,9 +29,10 @@ export interface ModalLine {
   Yc: Float64Array;
 }
 
+// Symmetrised: L and C are symmetric to rounding (checked at resolution); the factorisations want it exact.
 function toMatrix(a: Float64Array, n: number): Matrix {
   const m = new Matrix(n, n);
-  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) m.set(i, j, a[i * n + j]);
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) m.set(i, j, 0.5 * (a[i * n + j] + a[j * n + i]));
   return m;
 }
 

@@ -163,8 +163,11 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
         throw new SkeinError(e.code ?? 'E_WORKER', `partitioned run: ${e.message}`, e.details ?? {});
       };
       try {
+        const tSetup = performance.now();
         await Promise.all(ready);
         if (errors.length > 0) fail();
+        // Worker start-up (loading, resolving, compiling) is reported apart from stepping.
+        io.timing.workerSetup = (performance.now() - tSetup) / 1000;
         const nBlocks = Math.floor(p.nSteps / K) + 1;
         const varyingLoads = [...p.varying.flatMap((v) => v.loads), ...p.nonlinear.flatMap((v) => v.varying)];
         const replay = (b: number): void => {

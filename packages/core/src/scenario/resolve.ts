@@ -132,8 +132,13 @@ function matrix(doc: LocatedDocument, path: DocPath, v: unknown, n: number | und
 
 /** True when the symmetric m x m row-major matrix is positive definite (Cholesky succeeds). */
 export function isPositiveDefinite(a: Float64Array, m: number): boolean {
+  // Symmetrised: the caller checked symmetry to rounding; the factorisation wants it exact.
   const rows: number[][] = [];
-  for (let i = 0; i < m; i++) rows.push(Array.from(a.subarray(i * m, i * m + m)));
+  for (let i = 0; i < m; i++) {
+    const row: number[] = [];
+    for (let j = 0; j < m; j++) row.push(0.5 * (a[i * m + j] + a[j * m + i]));
+    rows.push(row);
+  }
   for (let i = 0; i < m; i++) if (!(a[i * m + i] > 0)) return false;
   return new CholeskyDecomposition(new Matrix(rows)).isPositiveDefinite();
 }
