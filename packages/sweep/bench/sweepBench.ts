@@ -39,10 +39,8 @@ const sample: CaseTask = {
 };
 
 /**
- * CPU seconds per thread of this process (Linux /proc; empty elsewhere). On a machine shared with
- * other work the wall-clock ratio measures the machine's load as much as the pool; the CPU time
- * each thread used gives what an idle machine with `cores` cores would take: the larger of the
- * busiest thread's time and the total divided by the cores.
+ * CPU seconds per thread of this process (Linux /proc; empty elsewhere), to show where the time
+ * goes: the main thread (keys, table) against the worker threads (the cases).
  */
 function threadCpuS(): Map<string, number> {
   const out = new Map<string, number>();
@@ -60,18 +58,23 @@ function threadCpuS(): Map<string, number> {
   return out;
 }
 
-function idleSeconds(before: Map<string, number>, after: Map<string, number>, cores: number): number {
-  let total = 0;
-  let busiest = 0;
+/** CPU seconds used between two readings: by the main thread, by the workers, by the rest (GC, JIT helpers). */
+function cpuSplit(before: Map<string, number>, after: Map<string, number>, workerIds: Set<number>): { mainS: number; workersS: number; otherS: number } {
+  let mainS = 0;
+  let workersS = 0;
+  let otherS = 0;
   for (const [t, v] of after) {
     const d = v - (before.get(t) ?? 0);
-    total += d;
-    busiest = Math.max(busiest, d);
+    if (Number(t) === process.pid) mainS += d;
+    else if (workerIds.has(Number(t))) workersS += d;
+    else otherS += d;
   }
-  return Math.max(busiest, total / cores);
+  return { mainS, workersS, otherS };
 }
 
-async function throughput(workers: number): Promise<{ workers: number; seconds: number; casesPerS: number; sum: number; idleProjectedS: number }> {
+interface Round { workers: number; seconds: number; casesPerS: number; sum: number; cpu: { mainS: number; workersS: number; otherS: number } }
+
+async function throughput(workers: number): Promise<Round> {
   const pool = createCasePool({ modules: registry.modules, workers });
   // Start-up (tsx loader, plugins) and JIT warm-up of every worker stay outside the timer: they
   // are paid once per worker, not per case.
@@ -81,41 +84,46 @@ async function throughput(workers: number): Promise<{ workers: number; seconds: 
   const t0 = performance.now();
   const out = await runSweep(spec, { registry, executor });
   const seconds = (performance.now() - t0) / 1000;
-  const idleProjectedS = idleSeconds(cpu0, threadCpuS(), 2);
+  const cpu1 = threadCpuS();
+  // Threads that appeared with this pool and did most of the work are its workers.
+  const fresh = [...cpu1.keys()].filter((t) => !cpu0.has(t) || (cpu1.get(t)! - cpu0.get(t)! > 0.2 * seconds && Number(t) !== process.pid));
+  const ranked = fresh.sort((x, y) => (cpu1.get(y)! - (cpu0.get(y) ?? 0)) - (cpu1.get(x)! - (cpu0.get(x) ?? 0)));
+  const cpu = cpuSplit(cpu0, cpu1, new Set(ranked.slice(0, workers).map(Number)));
   await pool.close();
   if (out.counts.computed !== nCases || out.counts.failed !== 0) throw new Error(`bench: expected ${nCases} computed cases, got ${JSON.stringify(out.counts)}`);
   // Use the results, so that nothing can be skipped.
   const sum = out.table.rows.reduce((s, r) => s + r.outputs[0], 0);
-  return { workers, seconds, casesPerS: nCases / seconds, sum, idleProjectedS };
+  return { workers, seconds, casesPerS: nCases / seconds, sum, cpu };
 }
 
 // Rounds alternate 1 and 2 workers; the best round of each counts, so that a burst of other load
 // on the machine during one round does not decide the figure.
 const roundsAt = argv.indexOf('--rounds');
 const rounds = roundsAt >= 0 ? Number(argv[roundsAt + 1]) : 3;
-let one: Awaited<ReturnType<typeof throughput>> | undefined;
-let two: Awaited<ReturnType<typeof throughput>> | undefined;
+let one: Round | undefined;
+let two: Round | undefined;
 for (let r = 0; r < rounds; r++) {
   const a = await throughput(1);
   const b = await throughput(2);
   if (a.sum !== b.sum) throw new Error(`bench: 1 and 2 workers disagree (${a.sum} vs ${b.sum})`);
   if (!json) {
-    console.log(`  round ${r + 1}: 1 worker ${a.casesPerS.toFixed(1)} cases/s, 2 workers ${b.casesPerS.toFixed(1)} cases/s, ratio ${(b.casesPerS / a.casesPerS).toFixed(2)}` +
-      (a.idleProjectedS > 0 ? ` (per-thread CPU: an idle 2-core machine would give ${(a.idleProjectedS / b.idleProjectedS).toFixed(2)})` : ''));
+    console.log(`  round ${r + 1}: 1 worker ${a.casesPerS.toFixed(1)} cases/s, 2 workers ${b.casesPerS.toFixed(1)} cases/s, ratio ${(b.casesPerS / a.casesPerS).toFixed(2)}`);
   }
   if (!one || a.casesPerS > one.casesPerS) one = a;
   if (!two || b.casesPerS > two.casesPerS) two = b;
 }
 if (!one || !two) throw new Error('bench: --rounds must be at least 1');
 const ratio = two.casesPerS / one.casesPerS;
-const idleRatio = one.idleProjectedS > 0 ? one.idleProjectedS / two.idleProjectedS : NaN;
 const load = loadavg()[0];
 if (json) {
-  console.log(JSON.stringify({ cases: nCases, steps, one, two, ratio, idleRatio, loadAverage1m: load }));
+  console.log(JSON.stringify({ cases: nCases, steps, one, two, ratio, loadAverage1m: load }));
 } else {
   console.log(`sweep pool throughput, ${nCases} cases of ${steps} steps`);
   console.log(`  best 1 worker : ${one.casesPerS.toFixed(1)} cases/s (${one.seconds.toFixed(2)} s)`);
   console.log(`  best 2 workers: ${two.casesPerS.toFixed(1)} cases/s (${two.seconds.toFixed(2)} s)`);
   console.log(`  ratio 2/1: ${ratio.toFixed(2)} (target >= 1.8)`);
-  console.log(`  from per-thread CPU time, on an idle 2-core machine: ${idleRatio.toFixed(2)} (load average now ${load.toFixed(1)} on ${availableParallelism()} cores)`);
+  const c = (x: Round) => `main ${x.cpu.mainS.toFixed(2)} s, workers ${x.cpu.workersS.toFixed(2)} s, other threads ${x.cpu.otherS.toFixed(2)} s`;
+  console.log(`  CPU time, 1 worker : ${c(one)}`);
+  console.log(`  CPU time, 2 workers: ${c(two)}`);
+  console.log(`  load average ${load.toFixed(1)} on ${availableParallelism()} cores (a loaded machine cannot show the pool's scaling)`);
 }
