@@ -7,7 +7,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
 import {
   compileScenario, InputError, runPartitioned, loadPluginModules, PluginRegistry, readResults, resolveScenarioText, runPlan, scenarioSchema,
-  SkeinError, writeFileAtomic, writeResults, type ResolvedScenario,
+  SkeinError, writeFileAtomic, writeResults, encodeResults, type ResolvedScenario,
 } from '@skein/core';
 import { createProgress } from './progress.ts';
 import { STANDARD_PLUGINS, STANDARD_PLUGINS_BASE } from './standardPlugins.ts';
@@ -16,6 +16,8 @@ import { toCsv } from './export.ts';
 import { formatParams, lineParams, parseFrequencies } from './params.ts';
 import { sectionSchema } from '@skein/lines';
 import { writePlots, writeReport } from '@skein/report';
+import { parseSpectrumArgs, runSpectrumCommand } from '@skein/spectral';
+import { spectralResultsDocument } from './spectralResults.ts';
 
 const HERE = dirname(fileURLToPath(import.meta.url));
 /** The built-in demo scenario. */
@@ -41,6 +43,11 @@ commands:
                                per-unit-length R, L, G, C of every line at the given
                                frequencies (default 0,50Hz,1MHz,100MHz), Zc, modal velocities
   schema [--section]           print the scenario JSON Schema (or the cross-section schema)
+  spectrum FILE --from F --to F [--points N] [--log] [--out v(J.n)]... [--port J.n:50ohm]...
+           [--touchstone FILE.s2p] [--touchstone-version 1|2] [--format RI|MA|DB] [--results PATH]
+                               the exact frequency-domain solution: node voltages, currents,
+                               transfer functions h(J.b/J.a), impedances z(J.n), S-parameters
+                               between ports (Touchstone); results in FILE.spectrum.msgpack
 
 options for every command that reads a scenario:
   --plugin SPEC                also load this plugin module (repeatable)
@@ -153,6 +160,7 @@ interface Flags {
  * @returns the exit code.
  */
 export async function main(argv: string[], io: Io = defaultIo): Promise<number> {
+  if (argv[0] === 'spectrum') return spectrumCommand(argv.slice(1), io);
   let parsed: ReturnType<typeof parseArgs>;
   try {
     parsed = parseArgs({
@@ -198,7 +206,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
       }
       case 'plot': {
         const file = needFile(rest, 'plot', 'a results file');
-        const plots = writePlots(readResults(file), flags.out ?? dirname(file), {});
+        const plots = writePlots(file, flags.out ?? dirname(file), {});
         io.out(plots.map((p) => `${p.kind}: ${p.path}`).join('\n'));
         return 0;
       }
@@ -251,17 +259,57 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         return 2;
     }
   } catch (e) {
-    if (e instanceof InputError) {
-      io.err(`skein: ${e.message}`);
-      return 2;
+    return reportError(e, io);
+  }
+}
+
+/** Pulls the engine's own options (--plugin, --config, --results, --quiet) out of a sub-command's arguments. */
+function engineFlags(args: string[]): { rest: string[]; flags: Flags & { results?: string } } {
+  const rest: string[] = [];
+  const flags: Flags & { results?: string } = { plugin: [] };
+  for (let i = 0; i < args.length; i++) {
+    const a = args[i];
+    if (a === '--plugin' && i + 1 < args.length) flags.plugin!.push(args[++i]);
+    else if (a === '--config' && i + 1 < args.length) flags.config = args[++i];
+    else if (a === '--results' && i + 1 < args.length) flags.results = args[++i];
+    else if (a === '--quiet' || a === '-q') flags.quiet = true;
+    else rest.push(a);
+  }
+  return { rest, flags };
+}
+
+async function spectrumCommand(args: string[], io: Io): Promise<number> {
+  try {
+    const { rest, flags } = engineFlags(args);
+    const cmd = parseSpectrumArgs(rest);
+    const registry = await buildRegistry(flags);
+    const sc = readScenario(cmd.scenarioFile, registry);
+    const { section, table, touchstone } = await runSpectrumCommand(cmd, sc, registry);
+    io.out(table);
+    const out = flags.results ?? cmd.scenarioFile.replace(/\.(ya?ml|json)$/i, '') + '.spectrum.msgpack';
+    writeFileAtomic(out, encodeResults(spectralResultsDocument(sc, section)));
+    io.out(`Results: ${out}`);
+    if (touchstone !== undefined && cmd.touchstoneFile) {
+      writeFileAtomic(cmd.touchstoneFile, touchstone);
+      io.out(`Touchstone: ${cmd.touchstoneFile}`);
     }
-    if (e instanceof SkeinError) {
-      io.err(`skein: ${e.message} [${e.code}]`);
-      return 1;
-    }
-    io.err(`skein: bug: ${(e as Error).stack ?? String(e)}`);
+    return 0;
+  } catch (e) {
+    return reportError(e, io);
+  }
+}
+
+function reportError(e: unknown, io: Io): number {
+  if (e instanceof InputError) {
+    io.err(`skein: ${e.message}`);
+    return 2;
+  }
+  if (e instanceof SkeinError) {
+    io.err(`skein: ${e.message} [${e.code}]`);
     return 1;
   }
+  io.err(`skein: bug: ${(e as Error).stack ?? String(e)}`);
+  return 1;
 }
 
 function needFile(rest: string[], command: string, what: string): string {
