@@ -85,3 +85,41 @@ probes:
     expect(Math.abs(l.residualJ) / l.deliveredJ).toBeLessThan(1e-3);
   });
 });
+
+describe('finite RC line', () => {
+  it('charges its open far end as the separation-of-variables series says', async () => {
+    // A step of 1 V on an RC line of length l whose far end is open (dv/dx = 0 there):
+    // v(x, t) = 1 - sum_k 4 / ((2k+1) pi) sin((2k+1) pi x / 2l) exp(-((2k+1) pi / 2l)^2 t / RC),
+    // derived by separation of variables (the method of H. S. Carslaw and J. C. Jaeger,
+    // Conduction of Heat in Solids, 2nd ed., 1959, ch. III, from memory). Same line as Kelvin's
+    // case, 10 km long; tolerance 2e-3 for the same reasons.
+    const R = 1e-2;
+    const C = 5e-11;
+    const l = 1e4;
+    const r = await runText(`
+skein: 1
+time: { end: 152us, record: 10 }
+lines:
+  cable: { from: shore, to: far, length: 10km, inductance: 1nH/m, capacitance: 50pF/m, resistance: 10ohm/km, fdtd: { cells: 400 } }
+junctions:
+  shore:
+    nodes: { s: [cable] }
+    parts: { key: { source: step, between: [s, ref], amplitude: 1 } }
+  far:
+    nodes: { f: [cable] }
+probes:
+  end: { probe: node-voltage, node: far.f }
+`, 'finiteRc.yaml');
+    const series = (x: number, t: number): number => {
+      let v = 1;
+      for (let k = 0; k < 200; k++) {
+        const m = ((2 * k + 1) * Math.PI) / (2 * l);
+        v -= (4 / ((2 * k + 1) * Math.PI)) * Math.sin(m * x) * Math.exp((-m * m * t) / (R * C));
+      }
+      return v;
+    };
+    for (const t of [20e-6, 50e-6, 100e-6, 150e-6]) {
+      expectClose(`open end at ${t * 1e6} us`, r.at('end.v', t), series(l, t), { rel: 0, abs: 2e-3 });
+    }
+  });
+});
