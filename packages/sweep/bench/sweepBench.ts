@@ -9,6 +9,7 @@
  */
 import { existsSync, readdirSync, readFileSync } from 'node:fs';
 import { availableParallelism, loadavg } from 'node:os';
+import { Worker } from 'node:worker_threads';
 import { fileURLToPath } from 'node:url';
 import { loadPluginModules, parseLocatedDocument, PluginRegistry, resolveScenarioData } from '@skein/core';
 import { STANDARD_PLUGINS } from '@skein/cli';
@@ -72,6 +73,33 @@ function cpuSplit(before: Map<string, number>, after: Map<string, number>, worke
   return { mainS, workersS, otherS };
 }
 
+/**
+ * Control measured in the same run: the same fixed CPU work (an integer loop, no skein code) on
+ * 1 thread and split over 2 plain worker threads. Its ratio is what the machine offers right now;
+ * on an idle 2-core machine it is close to 2, on a loaded one it drops with the load.
+ */
+async function controlRatio(): Promise<number> {
+  const code = "let x = 0; for (let i = 0; i < 1e8; i++) x += i % 7; require('node:worker_threads').parentPort.postMessage(x);";
+  const run = async (threads: number): Promise<number> => {
+    const t0 = performance.now();
+    const units = 4;
+    let next = 0;
+    await Promise.all(Array.from({ length: threads }, async () => {
+      while (next++ < units) {
+        await new Promise<void>((resolve, reject) => {
+          const w = new Worker(code, { eval: true });
+          w.once('message', () => void w.terminate().then(() => resolve()));
+          w.once('error', reject);
+        });
+      }
+    }));
+    return (performance.now() - t0) / 1000;
+  };
+  const one = await run(1);
+  const two = await run(2);
+  return one / two;
+}
+
 interface Round { workers: number; seconds: number; casesPerS: number; sum: number; cpu: { mainS: number; workersS: number; otherS: number } }
 
 async function throughput(workers: number): Promise<Round> {
@@ -102,26 +130,37 @@ const roundsAt = argv.indexOf('--rounds');
 const rounds = roundsAt >= 0 ? Number(argv[roundsAt + 1]) : 3;
 let one: Round | undefined;
 let two: Round | undefined;
+let bestControl = 0;
+const relative: number[] = [];
 for (let r = 0; r < rounds; r++) {
+  const control = await controlRatio();
+  bestControl = Math.max(bestControl, control);
   const a = await throughput(1);
   const b = await throughput(2);
   if (a.sum !== b.sum) throw new Error(`bench: 1 and 2 workers disagree (${a.sum} vs ${b.sum})`);
+  relative.push(b.casesPerS / a.casesPerS / control);
   if (!json) {
-    console.log(`  round ${r + 1}: 1 worker ${a.casesPerS.toFixed(1)} cases/s, 2 workers ${b.casesPerS.toFixed(1)} cases/s, ratio ${(b.casesPerS / a.casesPerS).toFixed(2)}`);
+    console.log(`  round ${r + 1}: 1 worker ${a.casesPerS.toFixed(1)} cases/s, 2 workers ${b.casesPerS.toFixed(1)} cases/s, ratio ${(b.casesPerS / a.casesPerS).toFixed(2)}; control (plain CPU loop, 2 threads vs 1) ${control.toFixed(2)}`);
   }
   if (!one || a.casesPerS > one.casesPerS) one = a;
   if (!two || b.casesPerS > two.casesPerS) two = b;
 }
 if (!one || !two) throw new Error('bench: --rounds must be at least 1');
 const ratio = two.casesPerS / one.casesPerS;
+// Median over rounds of (pool ratio / control ratio of the same round): how close the pool comes
+// to what the machine offered while it ran.
+const sortedRel = [...relative].sort((x, y) => x - y);
+const relMedian = sortedRel[Math.floor(sortedRel.length / 2)];
 const load = loadavg()[0];
 if (json) {
-  console.log(JSON.stringify({ cases: nCases, steps, one, two, ratio, loadAverage1m: load }));
+  console.log(JSON.stringify({ cases: nCases, steps, one, two, ratio, controlRatio: bestControl, poolOverControlMedian: relMedian, loadAverage1m: load }));
 } else {
   console.log(`sweep pool throughput, ${nCases} cases of ${steps} steps`);
   console.log(`  best 1 worker : ${one.casesPerS.toFixed(1)} cases/s (${one.seconds.toFixed(2)} s)`);
   console.log(`  best 2 workers: ${two.casesPerS.toFixed(1)} cases/s (${two.seconds.toFixed(2)} s)`);
   console.log(`  ratio 2/1: ${ratio.toFixed(2)} (target >= 1.8)`);
+  console.log(`  control ratio (what the machine offered, best round): ${bestControl.toFixed(2)}`);
+  console.log(`  pool ratio / control ratio of the same round, median over rounds: ${relMedian.toFixed(2)}`);
   const c = (x: Round) => `main ${x.cpu.mainS.toFixed(2)} s, workers ${x.cpu.workersS.toFixed(2)} s, other threads ${x.cpu.otherS.toFixed(2)} s`;
   console.log(`  CPU time, 1 worker : ${c(one)}`);
   console.log(`  CPU time, 2 workers: ${c(two)}`);
