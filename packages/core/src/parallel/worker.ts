@@ -57,15 +57,18 @@ async function main(init: WorkerInit): Promise<void> {
     plan.acceptLoads = plan.acceptLoads.filter((p) => own[p.part.junction] === 1);
     plan.varying = plan.varying.filter((v) => own[v.junction] === 1);
     plan.nonlinear = plan.nonlinear.filter((v) => own[v.junction] === 1);
+    // Parts of other workers are neither stepped nor needed here (computeParts writes by part index).
+    const allParts = plan.parts;
+    plan.parts = plan.parts.filter((p) => own[p.part.junction] === 1);
     const xRanges: number[] = [];
     for (let j = 0; j < plan.nJunctions; j++) if (own[j]) xRanges.push(plan.jX[j], plan.jX[j + 1]);
     const mySlots: number[] = [];
     if (init.self === 0) for (const w of plan.waveforms) mySlots.push(w.slot);
     for (const p of plan.historyLoads) mySlots.push(p.slot);
-    const myParts = plan.parts.filter((p) => own[p.part.junction] === 1 && p.mode === 'nonlinear').map((p) => p.index);
+    const myParts = plan.parts.filter((p) => p.mode === 'nonlinear').map((p) => p.index);
     const nX = plan.x.length;
     const nSlots = plan.slot.length;
-    const nParts = plan.parts.length;
+    const nParts = allParts.length;
     const xHist = new Float64Array(init.shared.xHist);
     const slotHist = new Float64Array(init.shared.slotHist);
     const nlHist = new Float64Array(init.shared.nlHist);
@@ -109,7 +112,7 @@ async function main(init: WorkerInit): Promise<void> {
     const warnings: string[] = plan.warnings.slice(warnStart);
     for (const w of plan.waveforms) if (init.self === 0) w.instance.finish?.();
     for (const p of plan.parts) {
-      if (!p.load || own[p.part.junction] !== 1) continue;
+      if (!p.load) continue;
       try {
         const out = p.load.finish?.();
         if (out) outputs[`part:${p.part.id}`] = out;

@@ -126,6 +126,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
   const points: PointRec[] = [];
   const ports: PortRec[] = [];
   let ledgerWanted = false;
+  let partsWanted = false;
   const lineIndex = new Map(sc.lines.map((l) => [l.id, l.index]));
   const partIndex = new Map(plan.parts.map((p) => [p.part.id, p.index]));
   const probes: Array<{ id: string; type: string; inst: ProbeInstance }> = [];
@@ -218,6 +219,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
         part(id, param) {
           const k = partIndex.get(id);
           if (k === undefined) throw fail(param, `must name a part: ${[...partIndex.keys()].join(', ') || '(none)'}`, id);
+          partsWanted = true;
           return k as PartHandle;
         },
         trace(name, unit) {
@@ -334,7 +336,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     step = n;
     tS = n * plan.dtS;
     const t1 = performance.now();
-    if (!partsReady) computeParts(plan, partV, partI, partU);
+    if (!partsReady && needParts) computeParts(plan, partV, partI, partU);
     if (ledger) accumulateLedger(plan, ledger, partV, partI, partU);
     const t2 = performance.now();
     timing.parts += t2 - t1;
@@ -346,7 +348,8 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     if (n % CHECK_EVERY === 0 || n === plan.nSteps) checkFinite(plan, n, tS);
     if (options.onProgress && n % progressEvery === 0) options.onProgress(n / plan.nSteps, n, plan.nSteps);
   };
-  const driver = options.driver ?? serialDriver(runs);
+  const needParts = ledgerWanted || partsWanted;
+  const driver = options.driver ?? serialDriver(runs, needParts);
   try {
     await driver.run(plan, { observe, timing, partV, partI, partU });
   } catch (e) {
@@ -390,7 +393,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
 }
 
 /** The default driver: every phase on this thread, one step at a time. */
-function serialDriver(runs: Int32Array): StepDriver {
+function serialDriver(runs: Int32Array, needParts: boolean): StepDriver {
   return {
     async run(plan, io) {
       const { timing, partV, partI, partU } = io;
@@ -421,7 +424,8 @@ function serialDriver(runs: Int32Array): StepDriver {
           timing.newton += t2 - t1;
         }
         if (plan.fdtd.length > 0) phaseFdtdAfter(plan);
-        computeParts(plan, partV, partI, partU);
+        // Branch values are needed by accept hooks, the ledger and part probes only.
+        if (needParts || plan.acceptLoads.length > 0) computeParts(plan, partV, partI, partU);
         acceptParts(plan, tS, partV, partI);
         if (plan.nonlinear.length > 0) acceptNonlinear(plan, tS);
         io.observe(n, true);

@@ -111,7 +111,7 @@ export function computeParts(plan: Plan, partV: Float64Array, partI: Float64Arra
         i = x[p.xConstraint];
         break;
       case 'nonlinear':
-        i = plan.nlCurrent[k];
+        i = plan.nlCurrent[p.index];
         break;
       case 'vsource':
         u = slot[p.slot];
@@ -126,9 +126,9 @@ export function computeParts(plan: Plan, partV: Float64Array, partI: Float64Arra
         i = u - p.g * v;
         break;
     }
-    partV[k] = v;
-    partI[k] = i;
-    partU[k] = u;
+    partV[p.index] = v;
+    partI[p.index] = i;
+    partU[p.index] = u;
   }
 }
 
