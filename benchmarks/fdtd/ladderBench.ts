@@ -31,6 +31,12 @@ export interface LineCase {
   loadOhm: number;
   /** End of the run [s]. */
   endS: number;
+  /**
+   * Source waveform: 'step' (default) a step with a raised-cosine edge of duration riseS; 'gaussian'
+   * a Gaussian pulse of standard deviation riseS centred at 5 riseS (infinitely smooth, used by the
+   * convergence test so that the ladder shows its asymptotic order).
+   */
+  waveform?: 'step' | 'gaussian';
 }
 
 /** The benchmark's line: Z0 = 50 ohm, v = 2e8 m/s, 0.5 Np of series loss at high frequency. */
@@ -45,11 +51,15 @@ export function speed(l: LineCase): number {
 }
 
 /**
- * The source EMF at t [s]: a raised-cosine edge to the amplitude over the rise (the `step`
+ * The source EMF at t [s] (for waveform 'gaussian' the Gaussian pulse): a raised-cosine edge to the amplitude over the rise (the `step`
  * plugin's `edge: smooth`, 0.5 (1 - cos(pi t / rise))). Smooth so that both methods converge at
  * their order; a linear ramp's kinks leave dispersive ripples that shrink more slowly.
  */
 export function emf(l: LineCase, tS: number): number {
+  if (l.waveform === 'gaussian') {
+    const d = tS - 5 * l.riseS;
+    return l.amplitudeV * Math.exp(-(d * d) / (2 * l.riseS * l.riseS));
+  }
   if (tS <= 0) return 0;
   return tS >= l.riseS ? l.amplitudeV : 0.5 * l.amplitudeV * (1 - Math.cos((Math.PI * tS) / l.riseS));
 }
@@ -138,23 +148,34 @@ export function runLadder(l: LineCase, d: Ladder): Sampled {
   const out = new Float64Array(d.steps + 1);
   const gSrc = 1 / l.sourceOhm;
   for (let n = 1; n <= d.steps; n++) {
-    // Histories: series J_k = gs u_k^n + a i_k^n (u_k = v_{k-1} - v_k), capacitor Jc_j = -gc v_j^n - iC_j^n.
-    for (let j = 0; j <= N; j++) rhs[j] = gc[j] * v[j] + iC[j];
-    for (let k = 0; k < N; k++) {
-      const J = gs * (v[k] - v[k + 1]) + a * iL[k];
-      rhs[k] -= J;
-      rhs[k + 1] += J;
-    }
-    rhs[0] += emf(l, n * d.dtS) * gSrc;
-    // Forward and back substitution.
-    for (let j = 1; j <= N; j++) rhs[j] -= mult[j] * rhs[j - 1];
-    // New voltages in rhs; the companions' currents from the old (v) and new (rhs) voltages.
-    rhs[N] *= invPivot[N];
-    for (let j = N - 1; j >= 0; j--) rhs[j] = (rhs[j] - offDiag * rhs[j + 1]) * invPivot[j];
-    for (let k = 0; k < N; k++) iL[k] = gs * (rhs[k] - rhs[k + 1] + v[k] - v[k + 1]) + a * iL[k];
+    // Forward pass: right-hand side from the histories (series J_k = gs u_k^n + a i_k^n with
+    // u_k = v_k - v_{k+1}, leaving node k and entering k + 1; capacitor gc v_j^n + iC_j^n), fused
+    // with the forward elimination of the LU.
+    let jIn = 0;
+    let prev = 0;
     for (let j = 0; j <= N; j++) {
-      iC[j] = gc[j] * (rhs[j] - v[j]) - iC[j];
-      v[j] = rhs[j];
+      let r = gc[j] * v[j] + iC[j] + jIn;
+      if (j < N) {
+        const J = gs * (v[j] - v[j + 1]) + a * iL[j];
+        r -= J;
+        jIn = J;
+      }
+      if (j === 0) r += emf(l, n * d.dtS) * gSrc;
+      else r -= mult[j] * prev;
+      rhs[j] = r;
+      prev = r;
+    }
+    // Backward pass: back substitution fused with the companions' current updates, which need the
+    // old voltages (v) and the new (x).
+    let xNext = 0;
+    let vOldNext = 0;
+    for (let j = N; j >= 0; j--) {
+      const x = j === N ? rhs[N] * invPivot[N] : (rhs[j] - offDiag * xNext) * invPivot[j];
+      if (j < N) iL[j] = gs * (x - xNext + v[j] - vOldNext) + a * iL[j];
+      iC[j] = gc[j] * (x - v[j]) - iC[j];
+      vOldNext = v[j];
+      v[j] = x;
+      xNext = x;
     }
     out[n] = v[N];
   }
@@ -164,6 +185,9 @@ export function runLadder(l: LineCase, d: Ladder): Sampled {
 /** Scenario text of the same line for skein with an FDTD segment of `cells` cells, step = cell delay. */
 export function scenarioText(l: LineCase, cells: number): string {
   const dt = l.lengthM / cells / speed(l);
+  const gen = l.waveform === 'gaussian'
+    ? `source: gaussian, between: [a, ref], amplitude: ${l.amplitudeV}, width: ${l.riseS}, centre: ${5 * l.riseS}`
+    : `source: step, between: [a, ref], amplitude: ${l.amplitudeV}, rise: ${l.riseS}, edge: smooth`;
   return `
 skein: 1
 time: { end: ${l.endS}, step: ${dt} }
@@ -172,7 +196,7 @@ lines:
 junctions:
   A:
     nodes: { a: [cable] }
-    parts: { gen: { source: step, between: [a, ref], amplitude: ${l.amplitudeV}, rise: ${l.riseS}, edge: smooth, resistance: ${l.sourceOhm}ohm } }
+    parts: { gen: { ${gen}, resistance: ${l.sourceOhm}ohm } }
   B:
     nodes: { b: [cable] }
     parts: { RL: { load: resistor, between: [b, ref], resistance: ${l.loadOhm}ohm } }
