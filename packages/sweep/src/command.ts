@@ -98,7 +98,9 @@ export function parseShard(v: string): { index: number; count: number } {
 }
 
 function num(x: number): string {
-  return Number.isFinite(x) ? String(Number(x.toPrecision(4))) : '-';
+  if (!Number.isFinite(x)) return '-';
+  const a = Math.abs(x);
+  return a !== 0 && (a < 1e-3 || a >= 1e6) ? x.toExponential(3) : String(Number(x.toPrecision(4)));
 }
 
 /** A text summary of a finished sweep: counts and the statistics of every column. */
