@@ -38,3 +38,11 @@ export {
 export { NEWTON_MAX_ITERATIONS } from './run/newton.ts';
 export { runPartitioned, decidePartition, type ScenarioSource, type PartitionedOptions, type PartitionDecision } from './parallel/runPartitioned.ts';
 export { partitionNetwork, breadthFirstOrder, type Partition } from './parallel/partition.ts';
+export { junctionStep } from './kernel/junctionStep.ts';
+export { junctionStepScalar } from './kernel/junctionStepScalar.ts';
+export { junctionStepBlocked } from './kernel/junctionStepBlocked.ts';
+export { junctionStepScalarBlocked } from './kernel/junctionStepScalarBlocked.ts';
+export { junctionStepOneNodeBlocked } from './kernel/junctionStepOneNodeBlocked.ts';
+export { junctionStepOneNodeUnrolled } from './kernel/junctionStepOneNodeUnrolled.ts';
+export { junctionStepFourNodeBlocked } from './kernel/junctionStepFourNodeBlocked.ts';
+export { fdtdStep } from './kernel/fdtdStep.ts';
