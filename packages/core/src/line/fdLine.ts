@@ -133,6 +133,8 @@ export interface FdLineFitOptions {
   tauS?: number;
   /** Vector-fitting iterations of the final fits; default 10. */
   iterations?: number;
+  /** Form of the H' fit: 'none' (strictly proper, default: H -> 0 as losses grow with frequency) or 'constant' (for lines whose H' stays finite, e.g. lossless or distortionless). */
+  hAsymptote?: 'none' | 'constant';
 }
 
 /** A fitted frequency-dependent line. */
@@ -144,7 +146,7 @@ export interface FdLineModel {
   losslessDelayS: number;
   /** Rational Yc [S] (passive: Re Yc >= 0). */
   yc: RationalFunction;
-  /** Rational H' (strictly proper, |H'| <= 1). */
+  /** Rational H' (strictly proper unless hAsymptote = 'constant'; |H'| <= 1). */
   h: RationalFunction;
   /** Fitting errors on the samples: Yc relative, H' relative and absolute (after passivity enforcement). */
   errors: { ycRmsRelative: number; ycMaxRelative: number; hRmsRelative: number; hRmsAbsolute: number; hMaxRelative: number };
@@ -193,7 +195,7 @@ export function fitFdLine(section: LineSection, lengthM: number, options: FdLine
   const wb = w.subarray(0, nBand);
   const errAt = (tau: number, it: number): { err: number; fit: ReturnType<typeof vectorFit>; re: Float64Array; im: Float64Array } => {
     const h = lineFunctions(section, lengthM, wb, tau);
-    const fit = vectorFit(wb, h.hRe, h.hIm, { nPoles: nH, startPoles: 'real', asymptote: 'none', iterations: it });
+    const fit = vectorFit(wb, h.hRe, h.hIm, { nPoles: nH, startPoles: 'real', asymptote: options.hAsymptote ?? 'none', iterations: it });
     return { err: fit.rmsError, fit, re: h.hRe, im: h.hIm };
   };
   let tau: number;

@@ -1,13 +1,11 @@
 // Vector fitting checks. A rational function with known poles and residues must be recovered
-// (Gustavsen and Semlyen, IEEE Trans. Power Delivery 14(3), 1999, sec. 4 fit such a test
-// function to machine precision; our own poles here). The line functions Yc and H of a skin-effect
-// coax come from @skein/lines.
+// (Gustavsen and Semlyen, IEEE Trans. Power Delivery 14(3), 1999, fit such a test function to
+// machine precision; our own poles here). The fits of a line's Yc and H are tested with
+// fitFdLine in fdLine.spec.ts.
 import { describe, expect, it } from 'vitest';
-import { computeSection } from '@skein/lines';
 import {
   enforceAdmittancePassivity, enforceBoundedMagnitude, evaluateRational, passivityGrid, vectorFit, type RationalFunction,
 } from '../vectorFitting.ts';
-import { lineFunctions } from '../fdLine.ts';
 
 const TWO_PI = 2 * Math.PI;
 
@@ -97,35 +95,6 @@ describe('enforceBoundedMagnitude', () => {
     const r = enforceBoundedMagnitude(KNOWN, TWO_PI * 10, TWO_PI * 1e8);
     expect(r.worstBefore).toBeGreaterThan(1);
     expect(r.worstAfter).toBeLessThanOrEqual(1);
-    expect(r.worstAfter).toBeGreaterThan(1 - 1e-5);
-  });
-});
-
-describe('lineFunctions', () => {
-  // A skin-effect coax (the REFERENCES.md geometry: a = 0.405 mm, b = 1.475 mm, er = 2.25,
-  // copper inner conductor, perfect shield, tan d = 2e-4), 10 m long.
-  const section = computeSection({ kind: 'coax', innerRadius: 0.405e-3, shieldInnerRadius: 1.475e-3, dielectric: { relPermittivity: 2.25, lossTangent: 2e-4 } });
-  const w = logOmegas(1e3, 1e9, 181);
-  const lf = lineFunctions(section, 10, w);
-
-  it('fits Yc(jw) of a skin-effect coax over 1 kHz..1 GHz within 1e-3 rms and passively', () => {
-    const wts = Float64Array.from(w, (_, i) => 1 / Math.hypot(lf.ycRe[i], lf.ycIm[i]));
-    const fit = vectorFit(w, lf.ycRe, lf.ycIm, { nPoles: 10, startPoles: 'real', weights: wts });
-    console.log('Yc rms rel', fit.rmsRelativeError, 'max', fit.maxRelativeError);
-    // 1e-3 is what the issue asks of the fit; measured below.
-    expect(fit.rmsRelativeError).toBeLessThan(1e-3);
-    const p = enforceAdmittancePassivity(fit, w[0], w[w.length - 1]);
-    expect(p.worstAfter).toBeGreaterThanOrEqual(0);
-    // High-frequency limit: 1 / Z0 = 1 / 51.665 ohm (Pozar, REFERENCES.md); the skin-effect
-    // internal inductance is still 0.1 % of L' at 1 GHz, hence 2e-3.
-    expect(Math.abs(p.fit.d * 51.665 - 1)).toBeLessThan(2e-3);
-  });
-
-  it('fits H(jw) = exp(-(gamma - jw/v) l) within 1e-3 rms and keeps |H| <= 1', () => {
-    const fit = vectorFit(w, lf.hRe, lf.hIm, { nPoles: 10, startPoles: 'real', asymptote: 'none' });
-    console.log('H rms rel', fit.rmsRelativeError, 'max', fit.maxRelativeError);
-    expect(fit.rmsRelativeError).toBeLessThan(1e-3);
-    const p = enforceBoundedMagnitude(fit, w[0], w[w.length - 1]);
-    expect(p.worstAfter).toBeLessThanOrEqual(1);
+    expect(r.worstAfter).toBeGreaterThan(1 - 1e-8);
   });
 });
