@@ -124,9 +124,10 @@ describe('service entrance example', () => {
     // here to 1e-4 relative.
     expectClose('arrester energy, device vs ledger', arrester.energyJ, led.absorbed.arrester, { rel: 1e-4 });
     expectClose('protector energy, device vs ledger', protector.energyJ, led.absorbed.protector, { rel: 1e-3 });
-    // The entrance arrester, with the lower clamping voltage, takes most of the energy that
-    // reaches the building.
-    expect(arrester.energyJ).toBeGreaterThan(20 * protector.energyJ);
+    // The appliance protector clamps lower than the entrance arrester, so at 20 m it takes about
+    // half of the energy and more than its 40 J rating: the run says so.
+    expect(protector.energyJ).toBeGreaterThan(40);
     expect(arrester.peakCurrentA).toBeGreaterThan(100);
+    expect(r.warnings.some((w) => w.startsWith('protector: rating exceeded:'))).toBe(true);
   });
 });

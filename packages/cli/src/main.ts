@@ -17,6 +17,7 @@ import { formatParams, lineParams, parseFrequencies } from './params.ts';
 import { sectionSchema } from '@skein/lines';
 import { writePlots, writeReport } from '@skein/report';
 import { parseSpectrumArgs, runSpectrumCommand } from '@skein/spectral';
+import { sweepCommand } from '@skein/sweep';
 import { spectralResultsDocument } from './spectralResults.ts';
 
 const HERE = dirname(fileURLToPath(import.meta.url));
@@ -43,6 +44,8 @@ commands:
                                per-unit-length R, L, G, C of every line at the given
                                frequencies (default 0,50Hz,1MHz,100MHz), Zc, modal velocities
   schema [--section]           print the scenario JSON Schema (or the cross-section schema)
+  sweep SWEEP.yaml [--workers N] [--shard K/N] [--queue URL | --worker-of URL] ...
+                               many cases of a base scenario (see packages/sweep/README.md)
   spectrum FILE --from F --to F [--points N] [--log] [--out v(J.n)]... [--port J.n:50ohm]...
            [--touchstone FILE.s2p] [--touchstone-version 1|2] [--format RI|MA|DB] [--results PATH]
                                the exact frequency-domain solution: node voltages, currents,
@@ -161,6 +164,7 @@ interface Flags {
  */
 export async function main(argv: string[], io: Io = defaultIo): Promise<number> {
   if (argv[0] === 'spectrum') return spectrumCommand(argv.slice(1), io);
+  if (argv[0] === 'sweep') return sweepCommand(argv.slice(1), io, { buildRegistry });
   let parsed: ReturnType<typeof parseArgs>;
   try {
     parsed = parseArgs({
