@@ -137,9 +137,12 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
         let onReady: () => void = () => {};
         ready.push(new Promise<void>((res) => { onReady = res; }));
         finished.push(new Promise<void>((res) => {
-          w.on('message', (m: { type: string; outputs?: Record<string, StructuredOutput>; warnings?: string[]; message?: string; code?: string; details?: Record<string, unknown> }) => {
+          w.on('message', (m: { type: string; outputs?: Record<string, StructuredOutput>; warnings?: string[]; message?: string; code?: string; details?: Record<string, unknown>; computeS?: number; waitS?: number }) => {
             if (m.type === 'ready') onReady();
             else if (m.type === 'finished') {
+              // Per-worker stepping and waiting time, for the efficiency figures.
+              io.timing[`worker${t}Compute`] = m.computeS ?? 0;
+              io.timing[`worker${t}Wait`] = m.waitS ?? 0;
               Object.assign(loadOutputs, m.outputs);
               loadWarnings.push(...(m.warnings ?? []));
               res();

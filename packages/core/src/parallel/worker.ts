@@ -78,11 +78,16 @@ async function main(init: WorkerInit): Promise<void> {
     const K = init.K;
     const nBlocks = Math.floor(plan.nSteps / K) + 1;
     parentPort!.postMessage({ type: 'ready' });
+    let computeMs = 0;
+    let waitMs = 0;
     for (let b = 0; b < nBlocks; b++) {
+      const tw = performance.now();
       while (Atomics.load(control, GO) <= b) {
         if (Atomics.load(control, ERROR) !== 0) return;
         Atomics.wait(control, GO, b, 1000);
       }
+      const tc = performance.now();
+      waitMs += tc - tw;
       const end = Math.min((b + 1) * K, plan.nSteps + 1);
       for (let n = b * K; n < end; n++) {
         const tS = n * plan.dtS;
@@ -104,6 +109,7 @@ async function main(init: WorkerInit): Promise<void> {
         const po = h * nParts;
         for (let k = 0; k < myParts.length; k++) nlHist[po + myParts[k]] = plan.nlCurrent[myParts[k]];
       }
+      computeMs += performance.now() - tc;
       blocksDone++;
       Atomics.add(control, DONE, 1);
       Atomics.notify(control, DONE);
@@ -120,7 +126,7 @@ async function main(init: WorkerInit): Promise<void> {
         warnings.push(`plugin ${p.part.type}, hook finish: ${(e as Error).message}`);
       }
     }
-    parentPort!.postMessage({ type: 'finished', outputs, warnings });
+    parentPort!.postMessage({ type: 'finished', outputs, warnings, computeS: computeMs / 1000, waitS: waitMs / 1000 });
   } catch (e) {
     const err = e as SkeinError;
     parentPort!.postMessage({ type: 'error', message: err.message, code: err.code, details: err.details, blocksDone });

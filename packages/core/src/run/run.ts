@@ -358,7 +358,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     throw failure;
   }
   const loopS = (performance.now() - tStart) / 1000;
-  for (const k of Object.keys(timing)) if (k !== 'compile' && k !== 'workerSetup') timing[k] /= 1000;
+  for (const k of Object.keys(timing)) if (k !== 'compile' && k !== 'workerSetup' && !k.startsWith('worker')) timing[k] /= 1000;
   timing.loop = loopS - (timing.workerSetup ?? 0);
   const outputs = finishAll();
 

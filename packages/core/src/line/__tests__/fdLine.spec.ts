@@ -60,6 +60,20 @@ describe('simulateFdLine', () => {
     expect(r.vNear[Math.round(t0 / dt)]).toBeCloseTo(0.5, 6);
   });
 
+  it('settles to the DC voltage divider of the line resistance on a skin-effect coax', () => {
+    // Ohm's law (common practice): 1 km of the coax, 1 V behind 50 ohm into 50 ohm, settles at
+    // 50 / (100 + R_dc l) with the section's DC resistance (33.4 ohm). The fits start at 1 Hz;
+    // Yc(0) = 0 and H(0) = 1 are extrapolated by the rational functions, whose error at the band
+    // edge (1e-3) bounds the tolerance.
+    const section = computeSection({ kind: 'coax', innerRadius: 0.405e-3, shieldInnerRadius: 1.475e-3, dielectric: { relPermittivity: 2.25, lossTangent: 2e-4 } });
+    const rdc = section.rlgcAt(0).R[0] * 1000;
+    expect(rdc).toBeGreaterThan(30);
+    const r = simulateFdLine({ section, lengthM: 1000, dtS: 1e-8, steps: 100_000, source: { v: (t) => Math.min(1, t / 20e-9), resistanceOhm: 50 }, loadR: 50 });
+    const want = 50 / (100 + rdc);
+    expect(Math.abs(r.vFar[99_999] / want - 1)).toBeLessThan(2e-3);
+    expect(Math.abs(r.vNear[99_999] / ((50 + rdc) / (100 + rdc)) - 1)).toBeLessThan(2e-3);
+  });
+
   it('names the bad input', () => {
     const section = constantSection(0, 250e-9, 0, 100e-12);
     const base = { section, lengthM: 1, steps: 10, source: { v: () => 1, resistanceOhm: 50 }, loadR: 50, fit: { ycPoles: 1, hPoles: 1, hAsymptote: 'constant' as const } };
