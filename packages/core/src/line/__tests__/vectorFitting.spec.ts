@@ -58,6 +58,17 @@ describe('vectorFit', () => {
     });
   }
 
+  it('recovers a term s e with the linear asymptote and real starting poles', () => {
+    const w = logOmegas(10, 1e8, 200);
+    const withE: RationalFunction = { ...KNOWN, e: 2e-8 };
+    const [re, im] = sample(withE, w);
+    const fit = vectorFit(w, re, im, { nPoles: 6, iterations: 20, asymptote: 'linear', startPoles: 'real' });
+    // Exactly representable again: rounding only (measured ~1e-12).
+    expect(fit.rmsRelativeError).toBeLessThan(1e-10);
+    expect(Math.abs(fit.e / 2e-8 - 1)).toBeLessThan(1e-8);
+    expect(Math.abs(fit.d - 0.5)).toBeLessThan(1e-8);
+  });
+
   it('flips unstable poles: the fit of a function with a right-half-plane pole has only stable poles', () => {
     const w = logOmegas(10, 1e6, 100);
     const bad: RationalFunction = { ...KNOWN, polesRe: Float64Array.of(2e3, -5e5, -1e4, -1e4, -3e5, -3e5) };
