@@ -198,7 +198,7 @@ export function cases(quick: boolean): FdtdCase[] {
   const out: FdtdCase[] = [];
   for (const n of [1, 4]) {
     for (const cells of sizes) {
-      const target = (quick ? 2e6 : 3e8) / (n * n);
+      const target = (quick ? 2e6 : 6e7) / (n * n);
       out.push({ n, cells, steps: Math.max(5, Math.round(target / cells)) });
     }
   }
