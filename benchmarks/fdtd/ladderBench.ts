@@ -293,6 +293,8 @@ export async function bestOf(reps: number, f: () => unknown): Promise<number> {
 export interface LadderBenchResult {
   tolerance: number;
   referenceDtS: number;
+  /** The reference's final value (last sample) [V]. */
+  referenceFinalV: number;
   ladder: { sections: number; dtS: number; stepFactor: number; steps: number; error: number; timeS: number; tried: Array<[number, number]> };
   skein: { cells: number; dtS: number; steps: number; error: number; timeS: number; tried: Array<[number, number]> };
   /** Ladder time over skein time. */
@@ -310,8 +312,9 @@ export async function main(argv: string[]): Promise<LadderBenchResult> {
   const ref = await reference(l, refDt);
   const reps = quick ? 1 : 3;
   // The ladder's trapezoidal rule is stable at any step, so its step is searched too: for each
-  // step of f section delays (f = 0.5, 1, 2; measured: 4 and more cost more, the time error adds to the dispersion), the coarsest passing section count; the cheapest
-  // (sections x steps) wins.
+  // step of f section delays (f = 0.5, 1, 2), the coarsest passing section count; the cheapest
+  // (sections x steps) wins. Measured: f = 4 and more cost more (the trapezoidal rule's phase
+  // lag adds to the ladder's dispersion), and f = 0.5 and 1 cost about the same.
   let lad: { n: number; error: number; tried: Array<[number, number]>; factor: number } | undefined;
   const factors = quick ? [1, 2] : [1, 0.5, 2];
   for (const f of factors) {
@@ -331,12 +334,12 @@ export async function main(argv: string[]): Promise<LadderBenchResult> {
   const ld = buildLadder(l, lad.n, ladDt);
   const sdt = l.lengthM / sk.n / speed(l);
   const res: LadderBenchResult = {
-    tolerance: tol, referenceDtS: refDt,
+    tolerance: tol, referenceDtS: refDt, referenceFinalV: ref.values[ref.values.length - 1],
     ladder: { sections: lad.n, dtS: ld.dtS, stepFactor: lad.factor, steps: ld.steps, error: lad.error, timeS: ladT, tried: lad.tried },
     skein: { cells: sk.n, dtS: sdt, steps: Math.round(l.endS / sdt), error: sk.error, timeS: skT, tried: sk.tried },
     ratio: ladT / skT,
   };
-  console.log(`line ${l.lengthM} m, R ${l.R} ohm/m, L ${l.L} H/m, G ${l.G} S/m, C ${l.C} F/m; step rise ${l.riseS} s, ${l.sourceOhm} / ${l.loadOhm} ohm; tolerance ${tol * 100} % of the final value`);
+  console.log(`line ${l.lengthM} m, R ${l.R} ohm/m, L ${l.L} H/m, G ${l.G} S/m, C ${l.C} F/m; step rise ${l.riseS} s, ${l.sourceOhm} / ${l.loadOhm} ohm; tolerance ${tol * 100} % of the final value ${res.referenceFinalV.toFixed(4)} V`);
   console.log(`ladder: ${res.ladder.sections} sections, ${res.ladder.steps} steps (dt = ${res.ladder.stepFactor} section delays), error ${(res.ladder.error * 100).toFixed(3)} %, ${(res.ladder.timeS * 1e3).toFixed(2)} ms`);
   console.log(`skein:  ${res.skein.cells} cells, ${res.skein.steps} steps, error ${(res.skein.error * 100).toFixed(3)} %, ${(res.skein.timeS * 1e3).toFixed(2)} ms`);
   console.log(`ratio ladder / skein: ${res.ratio.toFixed(1)}`);
