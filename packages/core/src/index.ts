@@ -46,3 +46,8 @@ export { junctionStepOneNodeBlocked } from './kernel/junctionStepOneNodeBlocked.
 export { junctionStepOneNodeUnrolled } from './kernel/junctionStepOneNodeUnrolled.ts';
 export { junctionStepFourNodeBlocked } from './kernel/junctionStepFourNodeBlocked.ts';
 export { fdtdStep } from './kernel/fdtdStep.ts';
+export {
+  vectorFit, evaluateRational, fitErrors, passivityGrid, enforceAdmittancePassivity, enforceBoundedMagnitude,
+  type RationalFunction, type RationalFit, type VectorFitOptions, type PassivityResult,
+} from './line/vectorFitting.ts';
+export { fitFdLine, lineFunctions, simulateFdLine, prepareFdLine, type FdLineModel, type FdLineFitOptions, type FdLineSimulation, type FdLineResult } from './line/fdLine.ts';

@@ -45,6 +45,11 @@ export interface ResolvedLine {
    * for one (`fdtd: { cells }`); undefined for travelling-wave (method of characteristics) lines.
    */
   fdtdCells?: number;
+  /**
+   * True for a one-conductor line given by a section and stepped by the frequency-dependent
+   * travelling-wave model (`model: frequency-dependent`): vector-fitted Yc and propagation function.
+   */
+  frequencyDependent?: boolean;
   /** The section as written in the scenario (kept for the digest and reports). */
   sectionInput?: unknown;
   /** Where the line sits in the scenario document. */

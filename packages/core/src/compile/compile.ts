@@ -7,6 +7,7 @@ import { LuDecomposition, Matrix, inverse } from 'ml-matrix';
 import { badInput, bug, PluginError, singularJunction } from '../errors.ts';
 import { decomposeLine, type ModalLine } from '../line/modal.ts';
 import { createFdtdLine, type FdtdLine } from './fdtd.ts';
+import { createFdRuntime, fitLine, type FdRuntime } from './fdRuntime.ts';
 import type { ResolvedJunction, ResolvedPart, ResolvedScenario } from '../model.ts';
 import type { LinearLoadInstance, LoadInstance, NonlinearLoadInstance, SetupContext, WaveformInstance } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
@@ -160,6 +161,8 @@ export interface Plan {
   nonlinear: NonlinearJunction[];
   /** FDTD segments (lossy lines). */
   fdtd: FdtdLine[];
+  /** Frequency-dependent lines. */
+  fdLines: FdRuntime[];
   /** Branch current of each nonlinear part at the last converged step [A], by part index. */
   nlCurrent: Float64Array;
   /** 1 where the junction is solved by Newton's method (outside the kernels). */
@@ -201,8 +204,13 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     options.onWarning?.(m);
   };
   const { registry } = options;
+  // Frequency-dependent lines are fitted first: their fitted delay bounds the time step.
+  const fdModels = new Map<number, ReturnType<typeof fitLine>>();
   for (const l of scenario.lines) {
-    if (l.section) warn(`line ${l.id}: the time-domain solver uses the section's high-frequency L and C; its conductor, dielectric and earth losses are left out`);
+    if (l.frequencyDependent && l.section) fdModels.set(l.index, fitLine(l.section, l.lengthM));
+  }
+  for (const l of scenario.lines) {
+    if (l.section && !l.frequencyDependent) warn(`line ${l.id}: the time-domain solver uses the section's high-frequency L and C; its conductor, dielectric and earth losses are left out`);
   }
   const modal = scenario.lines.map((l) => decomposeLine(l.L, l.C));
 
@@ -211,8 +219,10 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   let minWhere = '';
   scenario.lines.forEach((l, i) => {
     modal[i].velocities.forEach((v, m) => {
-      // An FDTD segment's limit is one cell at the fastest mode (the Courant condition).
-      const d = l.fdtdCells !== undefined ? l.lengthM / l.fdtdCells / v : l.lengthM / v;
+      // An FDTD segment's limit is one cell at the fastest mode (the Courant condition); a
+      // frequency-dependent line's is its fitted delay.
+      const fm = fdModels.get(l.index);
+      const d = fm ? fm.tauS : l.fdtdCells !== undefined ? l.lengthM / l.fdtdCells / v : l.lengthM / v;
       if (d < minDelay) {
         minDelay = d;
         minWhere = l.fdtdCells !== undefined ? `one FDTD cell of line ${l.id} at its mode ${m + 1} speed` : `line ${l.id}, mode ${m + 1}`;
@@ -297,7 +307,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
         k = Math.floor(steps + 1e-9);
         f = steps - k;
         if (f < 1e-9) f = 0;
-        if (k < MIN_DELAY_STEPS && l.fdtdCells === undefined) {
+        if (k < MIN_DELAY_STEPS && l.fdtdCells === undefined && !l.frequencyDependent) {
           throw bug(`delay of ${l.id} mode ${m + 1} is ${steps} steps although the step was checked against the shortest delay`);
         }
       }
@@ -314,7 +324,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       const re = 1 - f + f * Math.cos(wdt);
       const im = -f * Math.sin(wdt);
       delays.push({
-        line: l.id, mode: m + 1, velocityMps: v, delayS: d, k, f, fdtd: l.fdtdCells !== undefined,
+        line: l.id, mode: m + 1, velocityMps: v, delayS: d, k, f, fdtd: l.fdtdCells !== undefined || l.frequencyDependent === true,
         timingErrorS: Math.abs((k + f) * dtS - d),
         interpolationLoss: 1 - Math.hypot(re, im),
       });
@@ -351,7 +361,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   const junctionEnds: EndRef[][] = scenario.junctions.map((j, ji) => {
     const ends: EndRef[] = [];
     for (const p of j.ports) {
-      if (scenario.lines[p.line].fdtdCells !== undefined) {
+      if (scenario.lines[p.line].fdtdCells !== undefined || scenario.lines[p.line].frequencyDependent) {
         let e = fdtdEnds[ji].find((x) => x.line === p.line && x.end === p.end);
         if (!e) {
           e = { line: p.line, end: p.end, nodes: new Int32Array(scenario.lines[p.line].conductors.length).fill(-1) };
@@ -442,6 +452,14 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   const varying: VaryingJunction[] = [];
   const fdtd: FdtdLine[] = [];
   const fdtdOf = new Map<number, FdtdLine>();
+  const fdLines: FdRuntime[] = [];
+  const fdOf = new Map<number, FdRuntime>();
+  for (const [line, model] of fdModels) {
+    const f = createFdRuntime(line, model, dtS, nSlots);
+    nSlots += 2;
+    fdLines.push(f);
+    fdOf.set(line, f);
+  }
   for (const l of scenario.lines) {
     if (l.fdtdCells === undefined) continue;
     const vmax = Math.max(...modal[l.index].velocities);
@@ -496,6 +514,18 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     }
     // FDTD segment ends: Norton branches g to the reference, history currents through slots.
     for (const e of fdtdEnds[ji]) {
+      const fd = fdOf.get(e.line);
+      if (fd) {
+        // Frequency-dependent line end: Norton branch g (Yc's instantaneous part) to the reference.
+        const x = jX[ji] + e.nodes[0];
+        fd.xEnd[e.end] = x;
+        conductorX[lineCondOff[e.line] * 2 + e.end] = x;
+        A[e.nodes[0] * R + e.nodes[0]] += fd.p.g;
+        exRowL.push(e.nodes[0]);
+        exSlotL.push(fd.slotBase + e.end);
+        exCoefL.push(-1);
+        continue;
+      }
       const f = fdtdOf.get(e.line)!;
       const n = f.n;
       for (let k = 0; k < n; k++) {
@@ -622,7 +652,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     mat, wave: new Float64Array(waveLen), rhs: new Float64Array(Math.max(1, maxR)), inc: new Float64Array(nPorts), x: new Float64Array(nX),
     parts,
     waveforms: waveformDefs.map((d, i) => ({ type: d.type, instance: waveformInstances[i], slot: i, parts: d.parts })),
-    historyLoads, acceptLoads, varying, nonlinear, jNonlinear, fdtd, nlCurrent: new Float64Array(parts.length),
+    historyLoads, acceptLoads, varying, nonlinear, jNonlinear, fdtd, fdLines, nlCurrent: new Float64Array(parts.length),
     work: new Float64Array(Math.max(1, 2 * maxR * maxR)),
   };
 }

@@ -283,13 +283,15 @@ export interface FdLineResult {
 }
 
 /** The per-run arrays of a prepared line, all allocated before the first step. */
-interface Prepared {
+/** A fitted model prepared for one time step (recursive-convolution coefficients, delay in steps). */
+export interface Prepared {
   ycC: Float64Array; ycN: number; ycNc: number; ycD: number;
   hC: Float64Array; hN: number; hNc: number; hD: number;
   g: number; k: number; frac: number; mask: number;
 }
 
-function prepare(model: FdLineModel, dtS: number): Prepared {
+/** Prepares a fitted model for time step dt [s]. */
+export function prepareFdLine(model: FdLineModel, dtS: number): Prepared {
   const yc = createRecursiveConvolution(model.yc, dtS);
   const h = createRecursiveConvolution(model.h, dtS);
   const r = model.tauS / dtS;
@@ -324,7 +326,7 @@ export function simulateFdLine(sim: FdLineSimulation): FdLineResult {
     model = fitFdLine(sim.section, lengthM, sim.fit);
   }
   if (dtS > model.tauS) throw badInput(['simulateFdLine', 'dtS'], `must not exceed the line's delay ${model.tauS} s (an end must see only the other end's past)`, `${dtS} s`);
-  const p = prepare(model, dtS);
+  const p = prepareFdLine(model, dtS);
   const vNear = new Float64Array(steps);
   const vFar = new Float64Array(steps);
   const iNear = new Float64Array(steps);

@@ -58,7 +58,7 @@ export function decidePartition(plan: Plan, opts: PartitionedOptions): { partiti
   const minWork = opts.minBlockWorkS ?? 1e-3;
   const maxHist = opts.maxHistoryBytes ?? 256 * 1024 * 1024;
   if (asked === 1) return { partition: undefined, decision: { asked, used: 1, K: 0, crossing: 0, work: [plan.nPorts], reason: 'one thread asked' } };
-  if (plan.fdtd.length > 0) return { partition: undefined, decision: { asked, used: 1, K: 0, crossing: 0, work: [plan.nPorts], reason: 'FDTD segments (lossy lines) are not partitioned in this version' } };
+  if (plan.fdtd.length > 0 || plan.fdLines.length > 0) return { partition: undefined, decision: { asked, used: 1, K: 0, crossing: 0, work: [plan.nPorts], reason: 'FDTD segments and frequency-dependent lines are not partitioned in this version' } };
   let best: Partition | undefined;
   let reason = '';
   for (let t = Math.min(asked, cores, plan.nJunctions); t >= 2; t--) {

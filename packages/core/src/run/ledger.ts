@@ -118,8 +118,15 @@ export function refreshLedgerView(plan: Plan, led: Ledger, n: number): LedgerVie
     stored += e;
     lost += f.lostJ;
   });
+  for (const f of plan.fdLines) {
+    // A frequency-dependent line reports the energy that went into it under `lost` (stored or
+    // dissipated; its fitted model does not separate them).
+    const id = plan.scenario.lines[f.line].id;
+    v.lost.set(id, f.absorbedJ);
+    lost += f.absorbedJ;
+  }
   plan.scenario.lines.forEach((line, l) => {
-    if (line.fdtdCells !== undefined) return;
+    if (line.fdtdCells !== undefined || line.frequencyDependent) return;
     const ml = plan.modal[l];
     let e = 0;
     for (let m = 0; m < ml.n; m++) {

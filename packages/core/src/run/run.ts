@@ -14,6 +14,7 @@ import type { PluginRegistry } from '../plugins/registry.ts';
 import { accumulateLedger, createLedger, refreshLedgerView, type Ledger } from './ledger.ts';
 import { acceptNonlinear, phaseNonlinear } from './newton.ts';
 import { phaseFdtdAfter, phaseFdtdBefore } from './fdtdPhase.ts';
+import { phaseFdAfter, phaseFdBefore } from './fdPhase.ts';
 import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSources, phaseSwitches } from './step.ts';
 
 /**
@@ -191,6 +192,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
           if (l === undefined) throw fail(param, `must name a line: ${[...lineIndex.keys()].join(', ')}`, line);
           const len = sc.lines[l].lengthM;
           if (!(positionM >= 0 && positionM <= len)) throw fail(param, `must lie on line ${line}, between 0 m and ${len} m`, positionM);
+          if (sc.lines[l].frequencyDependent) throw fail(param, `must name a line with travelling-wave or FDTD model: line ${line} is frequency-dependent, whose inside is not computed (probe its ends)`, line);
           const ml = plan.modal[l];
           const rec: PointRec = { line: l, positionM, kf: new Int32Array(ml.n), ff: new Float64Array(ml.n), kb: new Int32Array(ml.n), fb: new Float64Array(ml.n) };
           for (let m = 0; m < ml.n; m++) {
@@ -264,6 +266,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     return (1 - f) * plan.wave[off + (i1 & mask)] + (f > 0 ? f * plan.wave[off + ((i1 - 1) & mask)] : 0);
   };
   const fdtdByLine = new Map(plan.fdtd.map((f) => [f.line, f]));
+  const fdByLine = new Map(plan.fdLines.map((f) => [f.line, f]));
   const pointWave = (h: PointHandle, k: number, current: boolean): number => {
     const rec = points[h];
     const fd = fdtdByLine.get(rec.line);
@@ -308,6 +311,8 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
       const r = ports[h];
       const fd = fdtdByLine.get(r.line);
       if (fd) return fd.iEnd[r.end * fd.n + r.conductor];
+      const fl = fdByLine.get(r.line);
+      if (fl) return fl.iEnd[r.end];
       const ml = plan.modal[r.line];
       const n = ml.n;
       const p0 = plan.lineEndPort[2 * r.line + r.end];
@@ -409,6 +414,7 @@ function serialDriver(runs: Int32Array, needParts: boolean): StepDriver {
           timing.switches += t1 - t2;
           t2 = t1;
         }
+        if (plan.fdLines.length > 0) phaseFdBefore(plan, n);
         if (plan.fdtd.length > 0) {
           phaseFdtdBefore(plan);
           t1 = performance.now();
@@ -424,6 +430,7 @@ function serialDriver(runs: Int32Array, needParts: boolean): StepDriver {
           timing.newton += t2 - t1;
         }
         if (plan.fdtd.length > 0) phaseFdtdAfter(plan);
+        if (plan.fdLines.length > 0) phaseFdAfter(plan, n);
         // Branch values are needed by accept hooks, the ledger and part probes only.
         if (needParts || plan.acceptLoads.length > 0) computeParts(plan, partV, partI, partU);
         acceptParts(plan, tS, partV, partI);
