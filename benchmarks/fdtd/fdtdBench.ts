@@ -15,6 +15,7 @@ import { Matrix, inverse } from 'ml-matrix';
 import { createFdtdLine, type FdtdLine } from '../../packages/core/src/compile/fdtd.ts';
 import { fdtdStep } from '../../packages/core/src/kernel/fdtdStep.ts';
 import type { ResolvedLine } from '../../packages/core/src/model.ts';
+import { fdtdStep4 } from './fdtdStep4.ts';
 
 /** One benchmark case: conductors n, cells, steps per timed run. */
 export interface FdtdCase {
@@ -37,6 +38,10 @@ export interface FdtdCaseResult extends FdtdCase {
   deviation: number;
   checksumTs: number;
   checksumC: number;
+  /** n = 4 only: the hand-specialised TS kernel (fdtdStep4.ts, an experiment) [1/s], its ratio to C, its deviation from C. */
+  ts4CellStepsPerS?: number;
+  ratio4?: number;
+  deviation4?: number;
 }
 
 /** Seeded PRNG (mulberry32, common practice) in [0, 1). */
@@ -183,12 +188,28 @@ export function runCase(c: FdtdCase, exe: string, dir: string, reps = 3): FdtdCa
   }
   if (updated !== cr.updated) throw new Error(`cell count differs: TS ${updated}, C ${cr.updated}`);
   const cellSteps = c.cells * c.steps;
+  let extra: Partial<FdtdCaseResult> = {};
+  if (c.n === 4) {
+    const w = buildSegment(4, 1000);
+    for (let s = 0; s < 200; s++) fdtdStep4(w.cells, w.Av, w.Bv, w.Ai, w.Bi, w.gm, w.V, w.I, w.iEnd, w.hEnd);
+    const g = buildSegment(4, c.cells);
+    let best4 = Infinity;
+    for (let r = 0; r < reps; r++) {
+      g.V.set(V0);
+      g.I.set(I0);
+      const t0 = process.hrtime.bigint();
+      for (let s = 0; s < c.steps; s++) fdtdStep4(g.cells, g.Av, g.Bv, g.Ai, g.Bi, g.gm, g.V, g.I, g.iEnd, g.hEnd);
+      best4 = Math.min(best4, Number(process.hrtime.bigint() - t0) * 1e-9);
+    }
+    extra = { ts4CellStepsPerS: cellSteps / best4, ratio4: cr.timeS / best4, deviation4: deviation(g, cr) };
+  }
   return {
     ...c, tsS: best, cS: cr.timeS,
     tsCellStepsPerS: cellSteps / best, cCellStepsPerS: cellSteps / cr.timeS,
     ratio: cr.timeS / best,
     deviation: deviation(f, cr),
     checksumTs: checksum(f), checksumC: cr.checksum,
+    ...extra,
   };
 }
 
@@ -218,17 +239,21 @@ export function main(argv: string[]): FdtdCaseResult[] {
   try {
     for (const c of cases(quick)) {
       const r = runCase(c, exe, dir, quick ? 1 : 3);
-      process.stderr.write(`n=${r.n} cells=${r.cells} steps=${r.steps}: TS ${fmt(r.tsCellStepsPerS)}/s C ${fmt(r.cCellStepsPerS)}/s ratio ${r.ratio.toFixed(3)} dev ${r.deviation.toExponential(1)}\n`);
+      const x = r.ts4CellStepsPerS ? `; specialised TS ${fmt(r.ts4CellStepsPerS)}/s ratio ${r.ratio4!.toFixed(3)} dev ${r.deviation4!.toExponential(1)}` : '';
+      process.stderr.write(`n=${r.n} cells=${r.cells} steps=${r.steps}: TS ${fmt(r.tsCellStepsPerS)}/s C ${fmt(r.cCellStepsPerS)}/s ratio ${r.ratio.toFixed(3)} dev ${r.deviation.toExponential(1)}${x}\n`);
       results.push(r);
     }
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
-  console.log('| n | cells | steps | TS cell-steps/s | C cell-steps/s | TS/C | deviation |');
-  console.log('|---|---|---|---|---|---|---|');
-  for (const r of results) console.log(`| ${r.n} | ${r.cells} | ${r.steps} | ${fmt(r.tsCellStepsPerS)} | ${fmt(r.cCellStepsPerS)} | ${r.ratio.toFixed(3)} | ${r.deviation.toExponential(1)} |`);
+  console.log('| n | cells | steps | TS cell-steps/s | C cell-steps/s | TS/C | deviation | specialised TS (n = 4) | its TS/C |');
+  console.log('|---|---|---|---|---|---|---|---|---|');
+  for (const r of results) {
+    const x = r.ts4CellStepsPerS ? `${fmt(r.ts4CellStepsPerS)} | ${r.ratio4!.toFixed(3)}` : '- | -';
+    console.log(`| ${r.n} | ${r.cells} | ${r.steps} | ${fmt(r.tsCellStepsPerS)} | ${fmt(r.cCellStepsPerS)} | ${r.ratio.toFixed(3)} | ${r.deviation.toExponential(1)} | ${x} |`);
+  }
   if (oi >= 0) writeFileSync(argv[oi + 1], JSON.stringify(results, null, 2));
-  if (results.some((r) => !(r.deviation <= 1e-12))) {
+  if (results.some((r) => !(r.deviation <= 1e-12) || (r.deviation4 !== undefined && !(r.deviation4 <= 1e-12)))) {
     console.error('FAIL: the C twin and the TS kernel differ by more than 1e-12');
     process.exitCode = 1;
   }
