@@ -330,7 +330,9 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       });
     });
   });
-  const worstLoss = Math.max(0, ...delays.filter((d) => !d.fdtd).map((d) => d.interpolationLoss));
+  // A loop, not a spread: a large network has more delays than the argument limit.
+  let worstLoss = 0;
+  for (const d of delays) if (!d.fdtd && d.interpolationLoss > worstLoss) worstLoss = d.interpolationLoss;
   if (worstLoss > 0.01) {
     warn(`delay interpolation attenuates the sources' bandwidth (${formatQuantity(fBw, 'Hz')}) by up to ${(worstLoss * 100).toFixed(2)} %; a shorter time.step or lengths that are whole multiples of it reduce this`);
   }

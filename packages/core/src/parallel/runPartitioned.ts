@@ -10,7 +10,7 @@ import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { compileScenario, type Plan } from '../compile/compile.ts';
 import { SkeinError } from '../errors.ts';
-import type { StructuredOutput } from '../plugins/api.ts';
+import type { NodeHandle, PartHandle, PointHandle, PortHandle, ProbeSetupContext, StructuredOutput, TraceHandle } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
 import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts';
 import { runPlan, type RunOptions, type RunResult, type StepDriver } from '../run/run.ts';
@@ -98,15 +98,50 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
     return Object.assign(r, { partition: decision });
   }
   const K = partition.K;
-  const plan = await compileScenario(resolve(), { registry, ringSlackSteps: 2 * K });
+  // The replay one block behind the workers reads waves from the rings only for probes that ask
+  // for line ends, line points or the ledger; only then do the rings need two blocks of slack
+  // (which costs memory and, beyond the cache, time).
+  const slack = (await probesReadWaves(probePlan, registry)) ? 2 * K : 0;
+  const plan = await compileScenario(resolve(), { registry, ringSlackSteps: slack });
   const compileS = (performance.now() - t0) / 1000;
-  const driver = partitionedDriver(plan, partition, source, registry);
+  const driver = partitionedDriver(plan, partition, source, registry, slack);
   const r = await runPlan(plan, { ...opts, driver }, compileS);
   r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
   return Object.assign(r, { partition: decision });
 }
 
-function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, registry: PluginRegistry): StepDriver {
+/**
+ * Whether any probe reads waves (line ends, line points) or the ledger: each probe is set up once
+ * against a recording context and finished at once (plugins share no state between runs).
+ */
+async function probesReadWaves(plan: Plan, registry: PluginRegistry): Promise<boolean> {
+  let reads = false;
+  const sc = plan.scenario;
+  const line = (id: string) => sc.lines.find((l) => l.id === id);
+  for (const pr of sc.probes) {
+    const plugin = registry.probes.get(pr.type)!.plugin;
+    const ctx: ProbeSetupContext = {
+      dtS: plan.dtS, endS: sc.time.endS, id: pr.id, warn: () => {}, partIds: plan.parts.map((p) => p.part.id),
+      node: () => 0 as NodeHandle,
+      lineEnd: () => { reads = true; return 0 as PortHandle; },
+      linePoint: () => { reads = true; return 0 as PointHandle; },
+      conductorsOf: (id) => line(id)?.conductors ?? ['w'],
+      lineLength: (id) => line(id)?.lengthM ?? 1,
+      part: () => 0 as PartHandle,
+      trace: () => 0 as TraceHandle,
+      useLedger: () => { reads = true; },
+    };
+    try {
+      const inst = await plugin.create(pr.params as never, ctx);
+      inst.finish?.();
+    } catch {
+      reads = true;
+    }
+  }
+  return reads;
+}
+
+function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, registry: PluginRegistry, slack: number): StepDriver {
   const K = partition.K;
   const T = partition.threads;
   const layout = { K, nX: plan.x.length, nSlots: plan.slot.length, nParts: plan.parts.length, waveLength: plan.wave.length };
@@ -129,7 +164,7 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
       const ready: Array<Promise<void>> = [];
       for (let t = 0; t < T; t++) {
         const init: WorkerInit = {
-          entry: WORKER_ENTRY, self: t, threads: T, K, ringSlackSteps: 2 * K, modules: [...registry.modules],
+          entry: WORKER_ENTRY, self: t, threads: T, K, ringSlackSteps: slack, modules: [...registry.modules],
           source: { text: source.text, data: source.data, file: source.file }, owner: partition.owner, shared,
         };
         const w = new Worker(BOOTSTRAP, { workerData: init });
