@@ -19,3 +19,12 @@ export function expectClose(place: string, got: number, expected: number, tol: T
     expect.fail(`${place}: got ${got}, expected ${expected}, relative error ${rel.toExponential(3)} (allowed ${tol.rel}${tol.abs !== undefined ? `, floor ${tol.abs}` : ''})`);
   }
 }
+
+/** Largest |a_i - b_i| over the samples, relative to the largest |b_i| (the reference's peak). */
+export function worstRelativeToPeak(a: ArrayLike<number>, b: ArrayLike<number>): { worst: number; peak: number } {
+  let peak = 0;
+  for (let i = 0; i < b.length; i++) peak = Math.max(peak, Math.abs(b[i]));
+  let w = 0;
+  for (let i = 0; i < a.length; i++) w = Math.max(w, Math.abs(a[i] - b[i]));
+  return { worst: w / peak, peak };
+}

@@ -6,6 +6,7 @@
 import { describe, expect, it } from 'vitest';
 import { resolveScenarioText } from '@skein/core';
 import { timeResponse } from '@skein/spectral';
+import { worstRelativeToPeak } from '../support/compare.ts';
 import { runText, standardRegistry } from '../support/run.ts';
 
 const NET = `
@@ -38,13 +39,7 @@ describe('transient vs spectral, overhead wire with earth return', () => {
     const ref = await timeResponse(sc, registry, { outputs: [{ kind: 'voltage', node: 'pole1.p' }, { kind: 'voltage', node: 'pole2.p' }], timesS: Array.from(r.times()) });
     const worst: number[] = [];
     (['v1.v', 'v2.v'] as const).forEach((trace, k) => {
-      const td = r.series(trace);
-      const fd = ref.series[k].values;
-      let peak = 0;
-      for (const x of fd) peak = Math.max(peak, Math.abs(x));
-      let w = 0;
-      for (let i = 0; i < td.length; i++) w = Math.max(w, Math.abs(td[i] - fd[i]));
-      worst.push(w / peak);
+      worst.push(worstRelativeToPeak(r.series(trace), ref.series[k].values).worst);
     });
     expect(Math.max(...worst), `worst differences ${worst.map((x) => x.toExponential(2)).join(', ')}`).toBeLessThan(0.01);
   }, 180_000);

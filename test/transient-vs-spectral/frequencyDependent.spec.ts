@@ -8,6 +8,7 @@
 import { describe, expect, it } from 'vitest';
 import { resolveScenarioText } from '@skein/core';
 import { timeResponse } from '@skein/spectral';
+import { worstRelativeToPeak } from '../support/compare.ts';
 import { runText, standardRegistry } from '../support/run.ts';
 
 const COAX = `{ kind: coax, innerRadius: 0.405mm, shieldInnerRadius: 1.475mm, dielectric: { relPermittivity: 2.25, lossTangent: 0.002, model: djordjevic-sarkar } }`;
@@ -49,13 +50,8 @@ describe('transient vs spectral, frequency-dependent lines', () => {
     });
     const worst: number[] = [];
     (['vs.v', 'vt.v', 'vr.v'] as const).forEach((trace, k) => {
-      const td = r.series(trace);
-      const fd = ref.series[k].values;
-      let peak = 0;
-      for (const x of fd) peak = Math.max(peak, Math.abs(x));
-      let w = 0;
-      for (let i = 0; i < td.length; i++) w = Math.max(w, Math.abs(td[i] - fd[i]));
-      worst.push(w / peak);
+      const { worst: w, peak } = worstRelativeToPeak(r.series(trace), ref.series[k].values);
+      worst.push(w);
       expect(peak).toBeGreaterThan(0.3);
     });
     for (const w of worst) expect(w, `worst differences ${worst.map((x) => x.toExponential(2)).join(', ')}`).toBeLessThan(0.01);
