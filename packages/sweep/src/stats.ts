@@ -2,7 +2,7 @@
  * Summary statistics of a sweep column: count, min, max, mean, standard deviation and the 5th,
  * 50th and 95th percentiles. Percentiles interpolate linearly between order statistics
  * (definition 7 of R. J. Hyndman and Y. Fan, "Sample quantiles in statistical packages",
- * The American Statistician 50(4), 361-365, 1996; the default of R and NumPy).
+ * The American Statistician 50(4), 361-365, 1996).
  */
 
 /** Statistics of the finite values of one column. */

@@ -57,8 +57,8 @@ export function expLinear(buf: Float64Array, at: number): void {
  * Logarithmic junction-voltage limiting of one Newton step of an exponential e^{(x - x0)/vt}:
  * above the critical voltage a step up is shortened so that the current grows as the
  * linearisation predicts, x = base + vt ln(1 + (xNew - base)/vt) with base = max(xOld, x0).
- * Steps down and steps below vcrit pass unchanged. (Classic circuit-simulation practice, e.g.
- * L. W. Nagel, "SPICE2", UC Berkeley ERL-M520, 1975, from memory.)
+ * Steps down and steps below vcrit pass unchanged. (Classic circuit-simulation practice for
+ * exponential junctions, common practice.)
  * @example limitExponentialStep(5, 0.6, 0.025, 0.6, 0) // 0.6 + 0.025 ln(1 + 4.4/0.025) = 0.7294
  */
 export function limitExponentialStep(xNew: number, xOld: number, vt: number, vcrit: number, x0: number): number {
