@@ -208,13 +208,18 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
         io.timing.workerSetup = (performance.now() - tSetup) / 1000;
         const nBlocks = Math.floor(p.nSteps / K) + 1;
         const varyingLoads = [...p.varying.flatMap((v) => v.loads), ...p.nonlinear.flatMap((v) => v.varying)];
+        // Views of every history row, made once (the replay loop allocates nothing).
+        const rows = 2 * K;
+        const xRows = Array.from({ length: rows }, (_, h) => xHist.subarray(h * layout.nX, (h + 1) * layout.nX));
+        const slotRows = Array.from({ length: rows }, (_, h) => slotHist.subarray(h * layout.nSlots, (h + 1) * layout.nSlots));
+        const nlRows = Array.from({ length: rows }, (_, h) => nlHist.subarray(h * layout.nParts, (h + 1) * layout.nParts));
         const replay = (b: number): void => {
           const end = Math.min((b + 1) * K, p.nSteps + 1);
           for (let n = b * K; n < end; n++) {
             const h = historyRow(n, K);
-            p.x = xHist.subarray(h * layout.nX, (h + 1) * layout.nX);
-            p.slot = slotHist.subarray(h * layout.nSlots, (h + 1) * layout.nSlots);
-            p.nlCurrent = nlHist.subarray(h * layout.nParts, (h + 1) * layout.nParts);
+            p.x = xRows[h];
+            p.slot = slotRows[h];
+            p.nlCurrent = nlRows[h];
             const tS = n * p.dtS;
             for (let k = 0; k < varyingLoads.length; k++) {
               const l = varyingLoads[k];
