@@ -73,6 +73,11 @@ export class FilamentDevice {
     out[1] = 0;
   }
 
+  /** Frequency-domain hook at s = sigma + j omega: the same real constant (analytic in s) [S]. */
+  admittanceAt(_sigma: number, omegaRadS: number, out: Float64Array): void {
+    this.admittance(omegaRadS, out);
+  }
+
   /** Step hook after convergence: advances the temperature by the heat balance, and the meter. */
   accept(vV: number, iA: number, tS: number): void {
     const s = this.#s;

@@ -242,10 +242,18 @@ export abstract class JunctionDevice {
    * Y = 1 / (Rs + 1 / (j'(0) + j omega C)), real part into out[0], imaginary into out[1] [S].
    */
   admittance(omegaRadS: number, out: Float64Array): void {
+    this.admittanceAt(0, omegaRadS, out);
+  }
+
+  /**
+   * Frequency-domain hook at s = sigma + j omega: Y(s) = 1 / (Rs + 1 / (j'(0) + s C)), the analytic
+   * continuation of `admittance` [S].
+   */
+  admittanceAt(sigma: number, omegaRadS: number, out: Float64Array): void {
     const s = this.#s;
     s[JX] = 0;
     this.junction(s, JX);
-    const g = s[DJ];
+    const g = s[DJ] + sigma * this.#p[2];
     const b = omegaRadS * this.#p[2];
     const den = g * g + b * b;
     if (den === 0) {

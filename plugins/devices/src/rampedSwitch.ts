@@ -77,6 +77,11 @@ export class RampedSwitchDevice {
     out[1] = 0;
   }
 
+  /** Frequency-domain hook at s = sigma + j omega: the same real constant (analytic in s) [S]. */
+  admittanceAt(_sigma: number, omegaRadS: number, out: Float64Array): void {
+    this.admittance(omegaRadS, out);
+  }
+
   /** Step hook after the solve: the meter. */
   accept(vV: number, iA: number, tS: number): void {
     const m = this.#meter;

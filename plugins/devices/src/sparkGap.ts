@@ -96,6 +96,11 @@ export class SparkGapDevice {
     out[1] = 0;
   }
 
+  /** Frequency-domain hook at s = sigma + j omega: the same real constant (analytic in s) [S]. */
+  admittanceAt(_sigma: number, omegaRadS: number, out: Float64Array): void {
+    this.admittance(omegaRadS, out);
+  }
+
   #event(kind: number, t: number, v: number): void {
     const s = this.#s;
     const k = s[N_EVENTS];

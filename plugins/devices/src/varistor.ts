@@ -170,6 +170,11 @@ export class VaristorDevice {
     out[1] = 0;
   }
 
+  /** Frequency-domain hook at s = sigma + j omega: the same real constant (analytic in s) [S]. */
+  admittanceAt(_sigma: number, omegaRadS: number, out: Float64Array): void {
+    this.admittance(omegaRadS, out);
+  }
+
   /** Step hook after convergence: energy and peaks. */
   accept(vV: number, iA: number, tS: number): void {
     const m = this.#meter;

@@ -30,6 +30,8 @@ export const capacitorLoad = defineLoad({
       conductanceS: g,
       // Frequency domain: Y = j omega C.
       admittance(w: number, out: Float64Array): void { out[0] = 0; out[1] = w * p.capacitance; },
+      // At s = sigma + j omega: Y = s C.
+      admittanceAt(sigma: number, w: number, out: Float64Array): void { out[0] = sigma * p.capacitance; out[1] = w * p.capacitance; },
       history: (): number => -(g * s[0] + s[1]),
       accept(vV: number): void {
         // Own model rather than the solver's current: the two agree, and this keeps the state exact.

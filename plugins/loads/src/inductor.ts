@@ -28,6 +28,12 @@ export const inductorLoad = defineLoad({
       conductanceS: g,
       // Frequency domain: Y = 1 / (j omega L) (infinite at DC: a spectral run starts above 0 Hz).
       admittance(w: number, out: Float64Array): void { out[0] = 0; out[1] = -1 / (w * p.inductance); },
+      // At s = sigma + j omega: Y = 1 / (s L) = (sigma - j omega) / ((sigma^2 + omega^2) L).
+      admittanceAt(sigma: number, w: number, out: Float64Array): void {
+        const d = (sigma * sigma + w * w) * p.inductance;
+        out[0] = sigma / d;
+        out[1] = -w / d;
+      },
       history: (): number => s[1] + g * s[0],
       accept(vV: number): void {
         s[1] = s[1] + g * (s[0] + vV);

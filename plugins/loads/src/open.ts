@@ -16,6 +16,7 @@ export const openLoad = defineLoad({
       kind: 'linear',
       conductanceS: 0,
       admittance(_w: number, out: Float64Array): void { out[0] = 0; out[1] = 0; },
+      admittanceAt(_sigma: number, _w: number, out: Float64Array): void { out[0] = 0; out[1] = 0; },
     };
   },
 });

@@ -48,6 +48,16 @@ export const parallelRlcLoad = defineLoad({
         out[0] = gr;
         out[1] = w * c - (l === undefined ? 0 : 1 / (w * l));
       },
+      // At s = sigma + j omega: Y = 1/R + s C + 1 / (s L).
+      admittanceAt(sigma: number, w: number, out: Float64Array): void {
+        out[0] = gr + sigma * c;
+        out[1] = w * c;
+        if (l !== undefined) {
+          const m = (sigma * sigma + w * w) * l;
+          out[0] += sigma / m;
+          out[1] -= w / m;
+        }
+      },
       history: (): number => s[1] + (gl - gc) * s[0] - s[2],
       accept(vV: number): void {
         s[1] = s[1] + gl * (s[0] + vV);

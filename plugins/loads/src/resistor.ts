@@ -20,6 +20,7 @@ export const resistorLoad = defineLoad({
       conductanceS: g,
       // Frequency domain: Y = 1 / R.
       admittance(_w: number, out: Float64Array): void { out[0] = g; out[1] = 0; },
+      admittanceAt(_sigma: number, _w: number, out: Float64Array): void { out[0] = g; out[1] = 0; },
     };
   },
 });

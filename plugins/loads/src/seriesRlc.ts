@@ -54,6 +54,19 @@ export const seriesRlcLoad = defineLoad({
         out[0] = r / d;
         out[1] = -x / d;
       },
+      // At s = sigma + j omega: Y = 1 / (R + s L + 1 / (s C)).
+      admittanceAt(sigma: number, w: number, out: Float64Array): void {
+        let zr = r + sigma * l;
+        let zi = w * l;
+        if (c !== undefined) {
+          const m = (sigma * sigma + w * w) * c;
+          zr += sigma / m;
+          zi -= w / m;
+        }
+        const d = zr * zr + zi * zi;
+        out[0] = zr / d;
+        out[1] = -zi / d;
+      },
       history: (): number => -e() * g,
       accept(vV: number): void {
         const iNew = g * (vV - e());

@@ -37,6 +37,7 @@ export const timedSwitchLoad = defineLoad({
       conductanceAt,
       // Frequency domain: the state at t = 0 (a spectral run is a small-signal, fixed-state view).
       admittance(_w: number, out: Float64Array): void { out[0] = conductanceAt(0); out[1] = 0; },
+      admittanceAt(_sigma: number, _w: number, out: Float64Array): void { out[0] = conductanceAt(0); out[1] = 0; },
     };
   },
 });

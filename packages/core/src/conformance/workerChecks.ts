@@ -42,7 +42,7 @@ export interface LoadOutcome {
 const TYPE_NAME = /^[a-z][a-z0-9]*(-[a-z0-9]+)*$/;
 const INSTANCE_KEYS: Record<AnyPlugin['kind'], readonly string[]> = {
   source: ['value', 'laplace', 'shortestFeatureS', 'settledAfterS', 'finish'],
-  load: ['kind', 'conductanceS', 'history', 'accept', 'conductanceAt', 'evaluate', 'limit', 'storedEnergyJ', 'admittance', 'finish'],
+  load: ['kind', 'conductanceS', 'history', 'accept', 'conductanceAt', 'evaluate', 'limit', 'storedEnergyJ', 'admittance', 'admittanceAt', 'finish'],
   probe: ['sample', 'finish'],
 };
 /** Steps of the shared-state and value checks (within the fake trace ring). */

@@ -107,6 +107,14 @@ export interface LinearLoadInstance {
    * out[0] (real, S) and out[1] (imaginary, S). Required for spectral runs.
    */
   admittance?(omegaRadS: number, out: Float64Array): void;
+  /**
+   * Frequency-domain hook at complex frequency: the admittance Y(s) at s = sigma + j omega
+   * (sigma [1/s], omega [rad/s]) into out[0] (real, S) and out[1] (imaginary, S), the analytic
+   * continuation of `admittance` (at sigma = 0 the two agree). Needed by the numerical Laplace
+   * transform of a time response (damping shift sigma > 0); when present a spectral solver uses it
+   * on the j omega axis too.
+   */
+  admittanceAt?(sigma: number, omegaRadS: number, out: Float64Array): void;
   /** Finish hook; may return structured results for the results file (under the part's id). */
   finish?(error?: unknown): StructuredOutput | void;
 }
@@ -134,6 +142,8 @@ export interface NonlinearLoadInstance {
   storedEnergyJ?(): number;
   /** Frequency-domain hook: small-signal admittance at omega around 0 V, as for linear loads. */
   admittance?(omegaRadS: number, out: Float64Array): void;
+  /** Frequency-domain hook: small-signal admittance at s = sigma + j omega, as for linear loads. */
+  admittanceAt?(sigma: number, omegaRadS: number, out: Float64Array): void;
   finish?(error?: unknown): StructuredOutput | void;
 }
 
@@ -259,6 +269,6 @@ export function defineProbe<P extends ParamSchema>(def: Def<ProbePlugin<P>>): Pr
 /** The hook names, by plugin kind (guarded by a type test). */
 export const HOOK_NAMES = {
   source: ['create', 'value', 'laplace', 'finish'],
-  load: ['create', 'history', 'accept', 'conductanceAt', 'evaluate', 'limit', 'storedEnergyJ', 'admittance', 'finish'],
+  load: ['create', 'history', 'accept', 'conductanceAt', 'evaluate', 'limit', 'storedEnergyJ', 'admittance', 'admittanceAt', 'finish'],
   probe: ['create', 'sample', 'finish'],
 } as const;

@@ -168,6 +168,19 @@ describe('DiodeDevice', () => {
     expectClose('Re Y', out[0], zr / (zr * zr + zi * zi), 1e-9);
     expectClose('Im Y', out[1], -zi / (zr * zr + zi * zi), 1e-9);
   });
+
+  it('continues the small-signal admittance to s = sigma + j omega as 1/(Rs + 1/(g0 + s C))', () => {
+    // The same closed form with j omega C replaced by s C (Laplace domain, common practice).
+    const d = makeLoad(diodeLoad, { saturationCurrent: 1e-6, seriesResistance: 10, junctionCapacitance: 1e-9 });
+    const out = new Float64Array(2);
+    const sr = 4e5, w = 2 * Math.PI * 1e6;
+    d.admittanceAt?.(sr, w, out);
+    const gr = 1e-6 / VT + sr * 1e-9, gi = w * 1e-9;
+    const zr = 10 + gr / (gr * gr + gi * gi);
+    const zi = -gi / (gr * gr + gi * gi);
+    expectClose('Re Y', out[0], zr / (zr * zr + zi * zi), 1e-12);
+    expectClose('Im Y', out[1], -zi / (zr * zr + zi * zi), 1e-12);
+  });
 });
 
 describe('JunctionDevice', () => {

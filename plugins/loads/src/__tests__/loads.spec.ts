@@ -267,3 +267,38 @@ describe('admittance hooks', () => {
     expect(Math.abs(bp)).toBeLessThan(1e-9);
   });
 });
+
+describe('admittanceAt hooks', () => {
+  it('give the Laplace-domain admittances 1/R, sC, 1/(sL), series and parallel RLC at complex s', async () => {
+    // Circuit theory (common practice): Y(s) = 1/R, s C, 1/(s L), 1/(R + s L + 1/(s C)),
+    // 1/R + s C + 1/(s L), here at s = sigma + j omega evaluated with complex arithmetic by hand;
+    // at sigma = 0 the hook must equal `admittance` (the analytic continuation agrees on the axis).
+    const { resistorLoad, capacitorLoad, inductorLoad, seriesRlcLoad, parallelRlcLoad, openLoad } = await import('../index.ts');
+    const ctx = { dtS: 1e-9, endS: 1e-6, id: 'x', warn: () => {} };
+    const out = new Float64Array(2);
+    const axis = new Float64Array(2);
+    const sr = 3e5, si = 2 * Math.PI * 1e5;
+    const inv = (a: number, b: number): [number, number] => [a / (a * a + b * b), -b / (a * a + b * b)];
+    const R = 10, L = 1e-6, C = 1e-9;
+    const cases: Array<[any, any, [number, number]]> = [
+      [resistorLoad, { resistance: 50 }, [0.02, 0]],
+      [openLoad, {}, [0, 0]],
+      [capacitorLoad, { capacitance: C, initialVoltage: 0 }, [sr * C, si * C]],
+      [inductorLoad, { inductance: L, initialCurrent: 0 }, inv(sr * L, si * L)],
+      [seriesRlcLoad, { resistance: R, inductance: L, capacitance: C, initialCurrent: 0, initialVoltage: 0 },
+        (() => { const [a, b] = inv(sr * C, si * C); return inv(R + sr * L + a, si * L + b); })()],
+      [parallelRlcLoad, { resistance: R, inductance: L, capacitance: C, initialCurrent: 0, initialVoltage: 0 },
+        (() => { const [a, b] = inv(sr * L, si * L); return [1 / R + sr * C + a, si * C + b] as [number, number]; })()],
+    ];
+    for (const [plugin, params, want] of cases) {
+      const inst = await plugin.create(params, ctx);
+      inst.admittanceAt(sr, si, out);
+      const scale = Math.hypot(want[0], want[1]) || 1;
+      expect(Math.abs(out[0] - want[0]) / scale).toBeLessThan(1e-13);
+      expect(Math.abs(out[1] - want[1]) / scale).toBeLessThan(1e-13);
+      inst.admittanceAt(0, si, out);
+      inst.admittance(si, axis);
+      expect(Math.abs(out[0] - axis[0]) + Math.abs(out[1] - axis[1])).toBeLessThanOrEqual(1e-15 * (Math.hypot(axis[0], axis[1]) || 1));
+    }
+  });
+});
