@@ -55,6 +55,13 @@ export interface LineSection {
   rlgcAt(fHz: number): Rlgc;
   /** Z and Y at fHz >= 0 [Hz]. Fresh arrays on every call. */
   zyAt(fHz: number): ZY;
+  /**
+   * Z(s) and Y(s) at complex frequency s = sigma + j omega (sigma [1/s] >= 0, omega [rad/s] >= 0),
+   * the analytic continuation of zyAt (Z = R + j omega L becomes Z(s); at sigma = 0 the two agree).
+   * Fresh arrays on every call. Throws SectionError SECTION_NOT_CONTINUABLE for a model that has no
+   * continuation (a constant loss tangent), naming it.
+   */
+  zyAtLaplace?(sigma: number, omegaRadS: number): ZY;
   /** One-line human description. */
   describe: string;
 }

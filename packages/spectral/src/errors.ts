@@ -8,8 +8,12 @@ import { NumericalError, SkeinError } from '@skein/core';
  * A plugin lacks a frequency-domain hook a spectral run needs (STYLE: capabilities are the hooks present).
  * @example missingHook('resistor', 'admittance', 'RL', 'load').code // 'E_SPECTRAL_HOOK_MISSING'
  */
-export function missingHook(plugin: string, hook: 'admittance' | 'laplace', part: string, kind: 'load' | 'waveform'): SkeinError {
-  const what = hook === 'admittance' ? 'a spectral run needs admittance(omegaRadS, out) on every load' : "excitation 'waveform' needs laplace(sigma, omega, out) on every source";
+export function missingHook(plugin: string, hook: 'admittance' | 'admittanceAt' | 'laplace', part: string, kind: 'load' | 'waveform'): SkeinError {
+  const what = hook === 'admittance'
+    ? 'a spectral run needs admittance(omegaRadS, out) or admittanceAt(sigma, omegaRadS, out) on every load'
+    : hook === 'admittanceAt'
+      ? "the numerical Laplace transform (method 'laplace') evaluates every load at s = sigma + j omega and needs admittanceAt(sigma, omegaRadS, out)"
+      : "excitation 'waveform' needs laplace(sigma, omega, out) on every source";
   return new SkeinError('E_SPECTRAL_HOOK_MISSING', `part ${part}: ${kind} plugin ${plugin} has no frequency-domain hook "${hook}"; ${what}`, { plugin, hook, part });
 }
 
@@ -19,6 +23,15 @@ export function missingHook(plugin: string, hook: 'admittance' | 'laplace', part
  */
 export function singularNetwork(frequencyHz: number, where: string, row: number): NumericalError {
   return new NumericalError('E_SPECTRAL_SINGULAR', `the network's nodal system is singular at ${frequencyHz.toPrecision(6)} Hz near ${where}; every node needs a path to the reference`, { frequencyHz, row });
+}
+
+/**
+ * An element of the network cannot be evaluated at complex frequency s = sigma + j omega.
+ * @param what the element ("line feeder"); @param why what is missing or not continuable.
+ * @example notContinuable('line c1', 'constant loss tangent').code // 'E_SPECTRAL_COMPLEX_FREQUENCY'
+ */
+export function notContinuable(what: string, why: string): SkeinError {
+  return new SkeinError('E_SPECTRAL_COMPLEX_FREQUENCY', `${what} cannot be evaluated at complex frequency s = sigma + j omega, which the numerical Laplace transform (method 'laplace') needs: ${why}; use method 'fourier' for this network`, { element: what, reason: why });
 }
 
 /** A Touchstone file that cannot be read. */

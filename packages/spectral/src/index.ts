@@ -10,8 +10,8 @@ export {
 } from './spectrum.ts';
 export { compileNetwork, nodeIndex, type SpectralNetwork } from './network.ts';
 export { toTouchstone, parseTouchstone, type TouchstoneOptions, type TouchstoneData } from './touchstone.ts';
-export { timeResponse, fft, type TimeResponseOptions, type TimeResponse } from './timeResponse.ts';
+export { timeResponse, fft, type TimeResponseOptions, type TimeResponse, type TimeWindow } from './timeResponse.ts';
 export { lineBlock, lineModes, type LineBlock, type LineModes } from './lineBlock.ts';
-export { missingHook, singularNetwork, badTouchstone } from './errors.ts';
+export { missingHook, notContinuable, singularNetwork, badTouchstone } from './errors.ts';
 export { cZeros, cFrom, cIdentity, cMul, cLu, cLuSolve, cInverse, cEigen, csqrt, type CMatrix, type CLu, type CEigen } from './complex.ts';
 export { parseSpectrumArgs, spectralSection, formatSpectrumTable, runSpectrumCommand, type SpectrumCommand } from './command.ts';

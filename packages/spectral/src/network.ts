@@ -1,6 +1,8 @@
 /**
  * The network in the frequency domain: global node numbering over all junctions, plugin instances,
- * and the modified nodal system (MNA) at one angular frequency.
+ * and the modified nodal system (MNA) at one angular frequency, or at one complex frequency
+ * s = sigma + j omega for the numerical Laplace transform (loads by `admittanceAt`, sections by
+ * `zyAtLaplace`, constant lines by Z = R + s L, Y = G + s C).
  *
  * Unknowns: every junction node voltage (global numbering: junction by junction, nodes in their
  * order), one branch current per ideal voltage drive and per short, then per line its 2n modal
@@ -15,7 +17,7 @@ import {
   badInput, SkeinError, PluginError,
   type LoadInstance, type PluginRegistry, type ResolvedLine, type ResolvedPart, type ResolvedScenario, type SetupContext, type WaveformInstance,
 } from '@skein/core';
-import { missingHook, singularNetwork, spectralBug } from './errors.ts';
+import { missingHook, notContinuable, singularNetwork, spectralBug } from './errors.ts';
 import { cFrom, cLu, cLuSolve, cZeros, type CLu, type CMatrix } from './complex.ts';
 import { lineModes, type LineModes } from './lineBlock.ts';
 
@@ -64,6 +66,8 @@ export type SourceState = Array<{ re: number; im: number } | null>;
 /** The system at one frequency: factors and line blocks. */
 export interface Assembled {
   omegaRadS: number;
+  /** Damping shift sigma [1/s] of the complex frequency s = sigma + j omega (0 on the j omega axis). */
+  sigma: number;
   lu: CLu;
   /** Modal solution of each line at this frequency. */
   modes: LineModes[];
@@ -135,7 +139,7 @@ export async function compileNetwork(scenario: ResolvedScenario, registry: Plugi
         } catch (e) {
           throw new PluginError(p.type, 'create', e, { part: p.id });
         }
-        if (inst.kind !== 'short' && typeof inst.admittance !== 'function') {
+        if (inst.kind !== 'short' && typeof inst.admittance !== 'function' && typeof inst.admittanceAt !== 'function') {
           throw missingHook(p.type, 'admittance', p.id, 'load');
         }
         parts.push({ part: p, plus, minus, load: inst, row: inst.kind === 'short' ? size++ : -1 });
@@ -164,19 +168,33 @@ export function nodeIndex(net: SpectralNetwork, name: string, path: ReadonlyArra
   return i;
 }
 
-/** Z and Y per metre of a line at omega: constant R, L, G, C or the section's zyAt. */
-function lineZY(l: ResolvedLine, omega: number): { z: CMatrix; y: CMatrix } {
+/**
+ * Z and Y per metre of a line at s = sigma + j omega: constant R, L, G, C (Z = R + s L, Y = G + s C),
+ * or the section's zyAt on the j omega axis and its zyAtLaplace off it.
+ * @throws SkeinError E_SPECTRAL_COMPLEX_FREQUENCY when the section has no continuation to complex s.
+ */
+function lineZY(l: ResolvedLine, omega: number, sigma: number): { z: CMatrix; y: CMatrix } {
   const n = l.conductors.length;
   if (l.section) {
-    const zy = l.section.zyAt(omega / (2 * Math.PI));
+    if (sigma === 0) {
+      const zy = l.section.zyAt(omega / (2 * Math.PI));
+      return { z: cFrom(n, n, zy.Zre, zy.Zim), y: cFrom(n, n, zy.Yre, zy.Yim) };
+    }
+    if (typeof l.section.zyAtLaplace !== 'function') throw notContinuable(`line ${l.id}`, `its section (${l.section.describe}) has no zyAtLaplace(sigma, omega)`);
+    let zy;
+    try {
+      zy = l.section.zyAtLaplace(sigma, omega);
+    } catch (e) {
+      throw notContinuable(`line ${l.id}`, (e as Error).message);
+    }
     return { z: cFrom(n, n, zy.Zre, zy.Zim), y: cFrom(n, n, zy.Yre, zy.Yim) };
   }
   const z = cZeros(n);
   const y = cZeros(n);
   for (let i = 0; i < n * n; i++) {
-    z.re[i] = l.R[i];
+    z.re[i] = l.R[i] + sigma * l.L[i];
     z.im[i] = omega * l.L[i];
-    y.re[i] = l.G[i];
+    y.re[i] = l.G[i] + sigma * l.C[i];
     y.im[i] = omega * l.C[i];
   }
   return { z, y };
@@ -197,16 +215,20 @@ export function stampAdmittance(m: CMatrix, p: number, q: number, re: number, im
 }
 
 /**
- * Assembles and factors the MNA matrix at omega. Sources listed as null in `removed` are taken out;
- * all others keep their internal resistance (their EMF enters only the right-hand side).
- * `extraShunts` adds admittances from nodes to the reference (port terminations).
- * @throws NumericalError E_SPECTRAL_SINGULAR naming the frequency and the node.
+ * Assembles and factors the MNA matrix at s = sigma + j omega (sigma = 0: the j omega axis). Sources
+ * listed as null in `removed` are taken out; all others keep their internal resistance (their EMF
+ * enters only the right-hand side). `extraShunts` adds admittances from nodes to the reference
+ * (port terminations).
+ * @param sigma damping shift [1/s], default 0; off the axis every load needs `admittanceAt`.
+ * @throws NumericalError E_SPECTRAL_SINGULAR naming the frequency and the node; SkeinError
+ *   E_SPECTRAL_HOOK_MISSING for a load without admittanceAt at sigma != 0, E_SPECTRAL_COMPLEX_FREQUENCY
+ *   for a section without a continuation.
  */
-export function assemble(net: SpectralNetwork, omegaRadS: number, removed: readonly boolean[], extraShunts: ReadonlyArray<{ node: number; re: number; im: number }> = []): Assembled {
+export function assemble(net: SpectralNetwork, omegaRadS: number, removed: readonly boolean[], extraShunts: ReadonlyArray<{ node: number; re: number; im: number }> = [], sigma = 0): Assembled {
   const a = cZeros(net.size);
   const modes: LineModes[] = [];
   for (const l of net.lines) {
-    const { z, y } = lineZY(l.line, omegaRadS);
+    const { z, y } = lineZY(l.line, omegaRadS, sigma);
     const md = lineModes(z, y, l.line.lengthM);
     modes.push(md);
     const n = l.n;
@@ -256,13 +278,18 @@ export function assemble(net: SpectralNetwork, omegaRadS: number, removed: reado
     if (np.load) {
       out[0] = NaN;
       out[1] = NaN;
+      const ld = np.load as { admittance?(w: number, o: Float64Array): void; admittanceAt?(sg: number, w: number, o: Float64Array): void };
+      // On the axis the plain hook keeps earlier results bit for bit; off it only admittanceAt knows Y(s).
+      const hook = sigma === 0 && typeof ld.admittance === 'function' ? 'admittance' : 'admittanceAt';
+      if (hook === 'admittanceAt' && typeof ld.admittanceAt !== 'function') throw missingHook(p.type, 'admittanceAt', p.id, 'load');
       try {
-        (np.load as { admittance(w: number, o: Float64Array): void }).admittance(omegaRadS, out);
+        if (hook === 'admittance') ld.admittance!(omegaRadS, out);
+        else ld.admittanceAt!(sigma, omegaRadS, out);
       } catch (e) {
-        throw new PluginError(p.type, 'admittance', e, { part: p.id });
+        throw new PluginError(p.type, hook, e, { part: p.id });
       }
       if (!Number.isFinite(out[0]) || !Number.isFinite(out[1])) {
-        throw new PluginError(p.type, 'admittance', new Error(`admittance at omega = ${omegaRadS} rad/s must be finite, got ${out[0]} + j${out[1]}`), { part: p.id });
+        throw new PluginError(p.type, hook, new Error(`admittance at s = ${sigma} + j${omegaRadS} 1/s must be finite, got ${out[0]} + j${out[1]}`), { part: p.id });
       }
       partYRe[k] = out[0];
       partYIm[k] = out[1];
@@ -281,7 +308,7 @@ export function assemble(net: SpectralNetwork, omegaRadS: number, removed: reado
     const where = row < net.nNodes ? `node ${net.nodeNames[row]}` : row < (net.lines[0]?.offset ?? net.size) ? 'a constraint row (an ideal voltage drive or short in a loop of others)' : 'the wave equations of a line';
     throw singularNetwork(omegaRadS / (2 * Math.PI), where, row);
   }
-  return { omegaRadS, lu, modes, partYRe, partYIm };
+  return { omegaRadS, sigma, lu, modes, partYRe, partYIm };
 }
 
 /**

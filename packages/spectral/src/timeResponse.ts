@@ -18,10 +18,12 @@
  *  5. Period doubling: Tp starts at 8 times the last sample time and is doubled until two passes
  *     agree to `tolerance` (default 1e-6 of the largest sample); the last change is reported as
  *     the wrap-around estimate.
- * This is the Fourier-series (FFT) route; the numerical Laplace transform (Wilcox 1978; Wedepohl)
- * instead damps the tail by a shift sigma, which needs every element at complex frequency, but a
- * load's `admittance(omega)` hook is known only on the j omega axis. The final-value removal and the
- * period doubling take the place of the shift; the README lists the errors measured.
+ * This is the Fourier-series route (method 'fourier', the default). Method 'laplace' is the numerical
+ * Laplace transform (D. J. Wilcox, "Numerical Laplace transformation and inversion", Int. J. Elect.
+ * Enging Educ. 15, 1978; L. M. Wedepohl, from memory): one pass at s = sigma + j omega_k with
+ * sigma = ln(1 / aliasing) / Tp, which damps the tail instead of doubling the period (every load
+ * needs `admittanceAt`, every section `zyAtLaplace`); see responseLaplace. The README lists the
+ * errors measured.
  */
 import { badInput, type PluginRegistry, type ResolvedScenario } from '@skein/core';
 import { assemble, compileNetwork, lineIndex, nodeIndex, solveAssembled, sourceRhs, type SpectralNetwork } from './network.ts';
@@ -40,8 +42,20 @@ export interface TimeResponseOptions {
   maxFrequencyHz?: number;
   /** Period Tp of the first pass as a multiple of the last sample time (default 8, at least 2). */
   periodFactor?: number;
-  /** Spectral window (default 'tukey': flat to fmax / 2). */
-  window?: 'tukey' | 'hann' | 'none';
+  /** Spectral window (default 'tukey': flat to fmax / 2; 'lanczos': Lanczos' sigma factors). */
+  window?: TimeWindow;
+  /**
+   * How the spectrum becomes a time response (default 'fourier'): 'fourier' is the Fourier series on
+   * the j omega axis with period doubling; 'laplace' the numerical Laplace transform (one pass at
+   * s = sigma + j omega, sigma = ln(1 / aliasing) / Tp, the shift undone by e^{sigma t}).
+   */
+  method?: 'fourier' | 'laplace';
+  /**
+   * Method 'laplace': the wanted aliasing error, relative to the largest |response| (default 1e-10,
+   * between 0 and 0.1). It sets sigma; the truncation and window errors are amplified by at most
+   * e^{sigma t_max} = aliasing^(-1 / periodFactor) (17.8 at the defaults).
+   */
+  aliasing?: number;
   /**
    * Wrap-around tolerance, relative to the largest sample (default 1e-6): the period is doubled
    * until two successive periods agree to it (or maxPoints is reached); 0 makes one pass.
@@ -51,11 +65,20 @@ export interface TimeResponseOptions {
   maxPoints?: number;
 }
 
+/** Spectral windows of timeResponse. */
+export type TimeWindow = 'tukey' | 'hann' | 'lanczos' | 'none';
+
 /** The samples of timeResponse and the parameters the method chose. */
 export interface TimeResponse {
   timesS: number[];
   series: Array<{ name: string; unit: string; values: Float64Array }>;
   method: {
+    /** 'fourier' (j omega axis, period doubling) or 'laplace' (numerical Laplace transform). */
+    kind: 'fourier' | 'laplace';
+    /** Damping shift sigma [1/s] (0 for 'fourier'). */
+    sigmaPerS: number;
+    /** 'laplace': the aliasing bound e^{-sigma Tp} / (1 - e^{-sigma Tp}) relative to the largest |response| (NaN for 'fourier'). */
+    aliasingBound: number;
     /** Period of the last pass [s]. */
     periodS: number;
     maxFrequencyHz: number;
@@ -65,7 +88,7 @@ export interface TimeResponse {
     tauS: number;
     /** Number of passes (periods tried). */
     passes: number;
-    /** Largest change between the last two passes relative to the largest sample (NaN after one pass). */
+    /** Largest change between the last two passes relative to the largest sample (NaN after one pass and for 'laplace'). */
     wrapEstimate: number;
     /** True when wrapEstimate <= tolerance (or one pass was asked for). */
     converged: boolean;
@@ -114,15 +137,15 @@ interface WaveSpectrum {
  * Spectrum of waveform w on omega_k = k 2 pi / Tp (k = 1..K) and at omegaEps (see step 1 above).
  * Exported for the tests; not part of the public API.
  */
-export function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS: number, omegaEps: number): WaveSpectrum {
+export function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS: number, omegaEps: number, sigma = 0): WaveSpectrum {
   const inst = net.waveforms[w];
   const dw = (2 * Math.PI) / periodS;
   const re = new Float64Array(K + 1);
   const im = new Float64Array(K + 1);
   const out = new Float64Array(2);
   if (typeof inst.laplace === 'function') {
-    for (let k = 1; k <= K; k++) {
-      inst.laplace(0, k * dw, out);
+    for (let k = sigma > 0 ? 0 : 1; k <= K; k++) {
+      inst.laplace(sigma, k * dw, out);
       re[k] = out[0];
       im[k] = out[1];
     }
@@ -135,7 +158,8 @@ export function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS
   const wInf = inst.value(inst.settledAfterS !== undefined && inst.settledAfterS < periodS ? inst.settledAfterS * 1.5 + dt : periodS);
   const dr = new Float64Array(M);
   const di = new Float64Array(M);
-  for (let n = 0; n < M; n++) dr[n] = inst.value(n * dt) - wInf;
+  // With a damping shift the integrand is (w - w_inf) e^{-sigma t}; the step w_inf / s is exact.
+  for (let n = 0; n < M; n++) dr[n] = (inst.value(n * dt) - wInf) * (sigma > 0 ? Math.exp(-sigma * n * dt) : 1);
   const d = dr.slice(0, GREGORY.length + 1);
   // Gregory's end correction at t = 0 (the far end is settled, d = 0 there):
   // h sum_j c_j Delta^j g_0 with g_n = d_n e^{-j omega n h}.
@@ -158,11 +182,13 @@ export function waveSpectrum(net: SpectralNetwork, w: number, K: number, periodS
   const er = dt * (d[0] / 2 + sr) + c0r;
   const ei = dt * si + c0i - wInf / omegaEps;
   fft(dr, di);
-  for (let k = 1; k <= K; k++) {
+  for (let k = sigma > 0 ? 0 : 1; k <= K; k++) {
     const om = k * dw;
     const [cr, ci] = correction(om);
-    re[k] = dt * (dr[k] - d[0] / 2) + cr;
-    im[k] = dt * di[k] + ci - wInf / om;
+    // w_inf / s at s = sigma + j omega: w_inf (sigma - j omega) / (sigma^2 + omega^2)
+    const m = sigma * sigma + om * om;
+    re[k] = dt * (dr[k] - d[0] / 2) + cr + (sigma > 0 ? (wInf * sigma) / m : 0);
+    im[k] = dt * di[k] + ci - (sigma > 0 ? (wInf * om) / m : wInf / om);
   }
   return { re, im, epsRe: er, epsIm: ei };
 }
@@ -196,11 +222,28 @@ export async function timeResponse(scenario: ResolvedScenario, registry: PluginR
   if (!(fmax > 0 && Number.isFinite(fmax))) throw badInput(['maxFrequencyHz'], 'must be a frequency above 0 Hz', fmax, 'E_SPECTRAL_TIME');
   const maxPoints = options.maxPoints ?? 400_000;
   const windowKind = options.window ?? 'tukey';
+  if (!WINDOWS.includes(windowKind)) throw badInput(['window'], `must be one of ${WINDOWS.join(', ')}`, windowKind, 'E_SPECTRAL_TIME');
+  const kind = options.method ?? 'fourier';
+  if (kind !== 'fourier' && kind !== 'laplace') throw badInput(['method'], 'must be fourier or laplace', kind, 'E_SPECTRAL_TIME');
   const tolerance = options.tolerance ?? 1e-6;
   if (!(tolerance >= 0)) throw badInput(['tolerance'], 'must be 0 (one pass) or a positive fraction', tolerance, 'E_SPECTRAL_TIME');
   const outs = options.outputs.map((o, oi) => planTimeOutput(net, o, oi));
   const first = Math.ceil(fmax * periodS);
   if (first > maxPoints) throw badInput(['maxFrequencyHz'], `gives ${first} frequency points over the period ${periodS} s, more than ${maxPoints}; lower it or the last sample time`, fmax, 'E_SPECTRAL_TIME');
+  if (kind === 'laplace') {
+    const aliasing = options.aliasing ?? 1e-10;
+    if (!(aliasing > 0 && aliasing <= 0.1)) throw badInput(['aliasing'], 'must be a fraction above 0 and at most 0.1', aliasing, 'E_SPECTRAL_TIME');
+    const sigma = Math.log(1 / aliasing) / periodS;
+    const pass = responseLaplace(net, outs, times, periodS, fmax, windowKind, sigma);
+    const series = options.outputs.map((o, i) => ({ name: outputName(o), unit: o.kind === 'voltage' ? 'V' : 'A', values: pass.values[i] }));
+    return {
+      timesS: times, series,
+      method: {
+        kind, sigmaPerS: sigma, aliasingBound: aliasing / (1 - aliasing), periodS, maxFrequencyHz: fmax, points: pass.points,
+        window: windowKind, tauS: NaN, passes: 1, wrapEstimate: NaN, converged: true,
+      },
+    };
+  }
   // Period doubling: the change between periods Tp and 2 Tp estimates the wrap-around of the tail.
   let tp = periodS;
   let prev = responseForPeriod(net, outs, times, tp, fmax, windowKind);
@@ -226,12 +269,12 @@ export async function timeResponse(scenario: ResolvedScenario, registry: PluginR
   const series = options.outputs.map((o, i) => ({ name: outputName(o), unit: o.kind === 'voltage' ? 'V' : 'A', values: prev.values[i] }));
   return {
     timesS: times, series,
-    method: { periodS: tp, maxFrequencyHz: fmax, points, window: windowKind, tauS: tp / 40, passes, wrapEstimate: estimate, converged },
+    method: { kind, sigmaPerS: 0, aliasingBound: NaN, periodS: tp, maxFrequencyHz: fmax, points, window: windowKind, tauS: tp / 40, passes, wrapEstimate: estimate, converged },
   };
 }
 
 /** One pass of the method over period Tp: the samples of every output at the given times. */
-function responseForPeriod(net: SpectralNetwork, outs: Reader[], times: number[], periodS: number, fmax: number, windowKind: string): { values: Float64Array[]; points: number } {
+function responseForPeriod(net: SpectralNetwork, outs: Reader[], times: number[], periodS: number, fmax: number, windowKind: TimeWindow): { values: Float64Array[]; points: number } {
   const K = Math.ceil(fmax * periodS);
   const dw = (2 * Math.PI) / periodS;
   const omegaEps = dw * 1e-4;
@@ -275,8 +318,7 @@ function responseForPeriod(net: SpectralNetwork, outs: Reader[], times: number[]
     const om = k * dw;
     const y = solveAt(om, k);
     const [rr, ri] = rOf(om);
-    const u = k / K;
-    const win = windowKind === 'none' ? 1 : windowKind === 'hann' ? 0.5 * (1 + Math.cos(Math.PI * u)) : u <= 0.5 ? 1 : 0.5 * (1 + Math.cos(Math.PI * (2 * u - 1)));
+    const win = windowWeight(windowKind, k / K);
     for (let i = 0; i < nOut; i++) {
       cRe[i * (K + 1) + k] = win * (y.re[i] - yInf[i] * rr);
       cIm[i * (K + 1) + k] = win * (y.im[i] - yInf[i] * ri);
@@ -298,6 +340,71 @@ function responseForPeriod(net: SpectralNetwork, outs: Reader[], times: number[]
       const x = t / tau;
       const r = -Math.expm1(-x) - Math.exp(-x) * (x + (x * x) / 2 + (x * x * x) / 6);
       v[q] = yInf[i] * r + (yRem0[i] + 2 * s) / periodS;
+    });
+    return v;
+  });
+  return { values, points: K + 1 };
+}
+
+const WINDOWS: readonly TimeWindow[] = ['tukey', 'hann', 'lanczos', 'none'];
+
+/**
+ * Weight of the term at u = omega / omega_max in [0, 1]: 'tukey' flat to 1/2 then a cosine taper
+ * (Bingham, Godfrey & Tukey, IEEE Trans. Audio Electroacoust. 15(2), 1967, from memory), 'hann'
+ * (1 + cos pi u) / 2, 'lanczos' the sigma factors sin(pi u) / (pi u) (C. Lanczos, Applied Analysis,
+ * 1956, ch. IV, from memory), 'none' 1.
+ */
+function windowWeight(kind: TimeWindow, u: number): number {
+  if (kind === 'none') return 1;
+  if (kind === 'hann') return 0.5 * (1 + Math.cos(Math.PI * u));
+  if (kind === 'lanczos') return u === 0 ? 1 : Math.sin(Math.PI * u) / (Math.PI * u);
+  return u <= 0.5 ? 1 : 0.5 * (1 + Math.cos(Math.PI * (2 * u - 1)));
+}
+
+/**
+ * One pass of the numerical Laplace transform over period Tp (Wilcox 1978; Wedepohl): the output's
+ * transform Y(s) at s_k = sigma + j k dw, k = 0..K, dw = 2 pi / Tp, K = ceil(fmax Tp), gives the
+ * Fourier coefficients of the damped response g(t) = y(t) e^{-sigma t}; its windowed series is
+ * summed and the shift undone:
+ *   y(t) = e^{sigma t} / Tp [Y(sigma) + 2 Re sum_{k=1..K} w_k Y(s_k) e^{j k dw t}].
+ * The periodic continuation adds sum_{m>=1} y(t + m Tp) e^{-sigma m Tp}, at most
+ * max|y| e^{-sigma Tp} / (1 - e^{-sigma Tp}) (the discretisation bound of the Fourier-series
+ * inversion: Dubner & Abate, J. ACM 15(1), 1968; Crump, J. ACM 23(1), 1976, from memory), so
+ * sigma = ln(1 / aliasing) / Tp. No final value is taken out: Y(s) is regular at s = sigma.
+ */
+function responseLaplace(net: SpectralNetwork, outs: Reader[], times: number[], periodS: number, fmax: number, windowKind: TimeWindow, sigma: number): { values: Float64Array[]; points: number } {
+  const K = Math.ceil(fmax * periodS);
+  const dw = (2 * Math.PI) / periodS;
+  const nOut = outs.length;
+  const spectra = net.waveforms.map((_, w) => waveSpectrum(net, w, K, periodS, dw * 1e-4, sigma));
+  const noRemoved = new Array<boolean>(net.parts.length).fill(false);
+  const cRe = new Float64Array(nOut * (K + 1));
+  const cIm = new Float64Array(nOut * (K + 1));
+  for (let k = 0; k <= K; k++) {
+    const phasors = net.parts.map((np) => (np.waveform === undefined ? null : { re: spectra[np.waveform].re[k], im: spectra[np.waveform].im[k] }));
+    const asm = assemble(net, k * dw, noRemoved, [], sigma);
+    const x = solveAssembled(asm, sourceRhs(net, [phasors]));
+    const win = k === 0 ? 1 : windowWeight(windowKind, k / K);
+    outs.forEach((r, i) => {
+      const [a, b] = r(asm, x, phasors);
+      cRe[i * (K + 1) + k] = win * a;
+      cIm[i * (K + 1) + k] = win * b;
+    });
+  }
+  const values = outs.map((_, i) => {
+    const v = new Float64Array(times.length);
+    times.forEach((t, q) => {
+      // sum_k c_k e^{j k dw t} by a rotation recurrence, re-anchored every 64 terms.
+      let s = 0;
+      const cr = Math.cos(dw * t), ci = Math.sin(dw * t);
+      let er = 1, ei = 0;
+      for (let k = 1; k <= K; k++) {
+        if ((k & 63) === 0) { er = Math.cos(k * dw * t); ei = Math.sin(k * dw * t); } else {
+          const nr = er * cr - ei * ci; ei = er * ci + ei * cr; er = nr;
+        }
+        s += cRe[i * (K + 1) + k] * er - cIm[i * (K + 1) + k] * ei;
+      }
+      v[q] = (Math.exp(sigma * t) * (cRe[i * (K + 1)] + 2 * s)) / periodS;
     });
     return v;
   });

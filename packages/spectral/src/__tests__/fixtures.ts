@@ -17,6 +17,25 @@ export const stepSource = defineSource({
   }),
 });
 
+/** Rectangular pulse of height A from 0 to `width`; W(s) = A (1 - e^{-s width}) / s, exact at complex s. */
+export const rectSource = defineSource({
+  type: 'rect',
+  summary: 'rectangular pulse at t = 0',
+  params: { amplitude: { unit: '1', summary: 'height', default: 1 }, width: { unit: 's', summary: 'duration', min: 0, exclusiveMin: true } },
+  create: (p) => ({
+    value: (t: number) => (t >= 0 && t < p.width ? p.amplitude : 0),
+    settledAfterS: p.width,
+    laplace(sigma: number, omega: number, out: Float64Array) {
+      // (1 - e^{-s w}) / s with s = sigma + j omega
+      const e = Math.exp(-sigma * p.width);
+      const nr = 1 - e * Math.cos(omega * p.width), ni = e * Math.sin(omega * p.width);
+      const d = sigma * sigma + omega * omega;
+      out[0] = (p.amplitude * (nr * sigma + ni * omega)) / d;
+      out[1] = (p.amplitude * (ni * sigma - nr * omega)) / d;
+    },
+  }),
+});
+
 /** Raised-cosine edge from 0 to A over `rise`, no laplace hook (the spectral side samples value(t)). */
 export const edgeSource = defineSource({
   type: 'edge',
@@ -49,6 +68,19 @@ export const resistorLoad = defineLoad({
     kind: 'linear',
     conductanceS: 1 / p.resistance,
     admittance(_w: number, out: Float64Array) { out[0] = 1 / p.resistance; out[1] = 0; },
+    admittanceAt(_sigma: number, _w: number, out: Float64Array) { out[0] = 1 / p.resistance; out[1] = 0; },
+  }),
+});
+
+/** A resistor with only the j omega hook (no admittanceAt), for the numerical Laplace transform's error test. */
+export const axisResistorLoad = defineLoad({
+  type: 'axis-resistor',
+  summary: 'resistor known only on the j omega axis',
+  params: { resistance: { unit: 'ohm', summary: 'R', min: 0, exclusiveMin: true } },
+  create: (p) => ({
+    kind: 'linear',
+    conductanceS: 1 / p.resistance,
+    admittance(_w: number, out: Float64Array) { out[0] = 1 / p.resistance; out[1] = 0; },
   }),
 });
 
@@ -65,6 +97,7 @@ export const capacitorLoad = defineLoad({
       history: () => -(g * s[0] + s[1]),
       accept: (v: number, i: number) => { s[0] = v; s[1] = i; },
       admittance(w: number, out: Float64Array) { out[0] = 0; out[1] = w * p.capacitance; },
+      admittanceAt(sigma: number, w: number, out: Float64Array) { out[0] = sigma * p.capacitance; out[1] = w * p.capacitance; },
     };
   },
 });
@@ -92,6 +125,6 @@ export const nodeProbe = defineProbe({
 /** The registry of the spectral tests. */
 export function spectralRegistry(): PluginRegistry {
   const r = new PluginRegistry();
-  for (const p of [stepSource, edgeSource, gaussianSource, resistorLoad, capacitorLoad, bareLoad, nodeProbe]) r.register(p, 'spectral/__tests__/fixtures.ts');
+  for (const p of [stepSource, rectSource, edgeSource, gaussianSource, resistorLoad, axisResistorLoad, capacitorLoad, bareLoad, nodeProbe]) r.register(p, 'spectral/__tests__/fixtures.ts');
   return r;
 }
