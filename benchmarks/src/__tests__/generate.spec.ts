@@ -5,8 +5,17 @@ import { junctionStepScalar } from '../../../packages/core/src/kernel/junctionSt
 import { benchRegistry, buildKernelNet, drawNetwork, SOURCE_OHM, SOURCE_V, toScenarioData, type KernelNet } from '../generate.ts';
 import { resetNet, slotRowsFor, stepNet } from '../tsRun.ts';
 
-const KEYS = ['jPort', 'jX', 'jN', 'jB', 'jK', 'jA', 'jEx', 'pIn', 'pInMask', 'pK', 'pF', 'pOut', 'pOutMask', 'pNode', 'pY2',
-  'exRow', 'exSlot', 'exCoef', 'mat'] as const;
+// The engine shares one copy of identical junction matrices (compile.ts, shareJunctionMatrices);
+// the generator keeps one block per junction, so B, K and A are compared junction by junction.
+const KEYS = ['jPort', 'jX', 'jN', 'jEx', 'pIn', 'pInMask', 'pK', 'pF', 'pOut', 'pOutMask', 'pNode', 'pY2',
+  'exRow', 'exSlot', 'exCoef'] as const;
+
+/** Junction j's B, K and A blocks (consecutive in both layouts) from a layout. */
+function junctionBlock(l: { jPort: Int32Array; jX: Int32Array; jN: Int32Array; jB: Int32Array; mat: Float64Array }, j: number): Float64Array {
+  const M = l.jPort[j + 1] - l.jPort[j];
+  const R = l.jX[j + 1] - l.jX[j];
+  return l.mat.subarray(l.jB[j], l.jB[j] + R * M + R * R + M * l.jN[j]);
+}
 
 function firstDifference(a: ArrayLike<number>, b: ArrayLike<number>): number {
   if (a.length !== b.length) return -2;
@@ -44,6 +53,11 @@ describe('buildKernelNet', () => {
         expect(plan.nJunctions).toBe(40);
         expect(plan.jScalar.every((s) => s === (conductors === 1 ? 1 : 0))).toBe(true);
         for (const k of KEYS) expect(`${k}: ${firstDifference(net[k], plan[k])}`).toBe(`${k}: -1`);
+        for (let j = 0; j < 40; j++) {
+          expect(`junction ${j}: ${firstDifference(junctionBlock(net, j), junctionBlock(plan, j))}`).toBe(`junction ${j}: -1`);
+          expect(plan.jK[j] - plan.jB[j]).toBe(net.jK[j] - net.jB[j]);
+          expect(plan.jA[j] - plan.jB[j]).toBe(net.jA[j] - net.jB[j]);
+        }
         expect(net.wave.length).toBe(plan.wave.length);
         stepPlan(plan, 300);
         stepNet(net, conductors === 1 ? 0 : 1, 300, 1, slotRowsFor(net, 1));

@@ -212,7 +212,18 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   for (const l of scenario.lines) {
     if (l.section && !l.frequencyDependent) warn(`line ${l.id}: the time-domain solver uses the section's high-frequency L and C; its conductor, dielectric and earth losses are left out`);
   }
-  const modal = scenario.lines.map((l) => decomposeLine(l.L, l.C));
+  // Lines of one cable type share one decomposition (a harness has thousands of branches of a
+  // few types); the modal data is read-only after this point.
+  const modalByMatrices = new Map<string, ModalLine>();
+  const modal = scenario.lines.map((l) => {
+    const key = `${l.L.join(',')}|${l.C.join(',')}`;
+    let m = modalByMatrices.get(key);
+    if (!m) {
+      m = decomposeLine(l.L, l.C);
+      modalByMatrices.set(key, m);
+    }
+    return m;
+  });
 
   // Shortest delay per line mode.
   let minDelay = Infinity;
@@ -644,6 +655,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   // Nonlinear devices are accepted by the Newton phase with their converged values.
   const acceptLoads = parts.filter((p) => p.load !== undefined && p.load.kind !== 'nonlinear' && 'accept' in p.load && p.load.accept !== undefined);
 
+  const sharedMat = shareJunctionMatrices(nJ, jPort, jX, jN, jB, jK, jA, mat, varying);
   return {
     scenario, dtS, nSteps, recordEvery, nSamples, modal, delays, warnings,
     nJunctions: nJ, jPort, jX, jN, jB, jK, jA, jEx, jScalar,
@@ -651,12 +663,50 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     lineEndPort, conductorX, lineCondOff, fwdOff, bwdOff, ringMask, lineModeOff,
     exRow: Int32Array.from(exRowL), exSlot: Int32Array.from(exSlotL), exCoef: Float64Array.from(exCoefL),
     slot: new Float64Array(nSlots),
-    mat, wave: new Float64Array(waveLen), rhs: new Float64Array(Math.max(1, maxR)), inc: new Float64Array(nPorts), x: new Float64Array(nX),
+    mat: sharedMat, wave: new Float64Array(waveLen), rhs: new Float64Array(Math.max(1, maxR)), inc: new Float64Array(nPorts), x: new Float64Array(nX),
     parts,
     waveforms: waveformDefs.map((d, i) => ({ type: d.type, instance: waveformInstances[i], slot: i, parts: d.parts })),
     historyLoads, acceptLoads, varying, nonlinear, jNonlinear, fdtd, fdLines, nlCurrent: new Float64Array(parts.length),
     work: new Float64Array(Math.max(1, 2 * maxR * maxR)),
   };
+}
+
+/**
+ * Junctions with the same matrices (same line types, same parts: most junctions of a harness or
+ * a generated grid) share one copy of B, K and A, so the stepping reads a few blocks that stay in
+ * cache instead of one block per junction. A junction whose K is re-factored while stepping
+ * (time-varying parts) keeps its own. Rewrites jB, jK and jA in place.
+ * @returns the compacted matrix store.
+ */
+function shareJunctionMatrices(
+  nJ: number, jPort: Int32Array, jX: Int32Array, jN: Int32Array, jB: Int32Array, jK: Int32Array, jA: Int32Array,
+  mat: Float64Array, varying: VaryingJunction[],
+): Float64Array {
+  const own = new Uint8Array(nJ);
+  for (const v of varying) own[v.junction] = 1;
+  const byContent = new Map<string, number>();
+  const out = new Float64Array(mat.length);
+  let len = 0;
+  for (let j = 0; j < nJ; j++) {
+    const M = jPort[j + 1] - jPort[j];
+    const R = jX[j + 1] - jX[j];
+    const size = R * M + R * R + M * jN[j];
+    const from = jB[j];
+    // B, K and A are consecutive (see the layout above).
+    const block = mat.subarray(from, from + size);
+    const key = own[j] ? '' : `${M},${R},${jN[j]}:${block.join(',')}`;
+    let at = own[j] ? -1 : byContent.get(key) ?? -1;
+    if (at < 0) {
+      at = len;
+      out.set(block, at);
+      len += size;
+      if (!own[j]) byContent.set(key, at);
+    }
+    jB[j] = at;
+    jK[j] = at + R * M;
+    jA[j] = at + R * M + R * R;
+  }
+  return out.slice(0, Math.max(1, len));
 }
 
 function invertJunction(j: ResolvedJunction, A: Float64Array, R: number, mat: Float64Array, off: number): void {

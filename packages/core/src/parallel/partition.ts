@@ -1,9 +1,10 @@
 /**
  * Partitioning a network at its lines for a multi-thread run. A line's delay decouples its two
  * ends, so threads that own the two ends of a line only need to meet every K steps, K the
- * shortest whole-step delay among the lines that cross between threads. The partition keeps
- * the work balanced (line-end ports per thread) and, among nearly balanced cuts, prefers the one
- * whose crossing lines are longest. Junctions are first put in breadth-first order so that each
+ * shortest whole-step delay among the lines that cross between threads. The partition balances
+ * the stepping cost of the junctions (junctionCost) and moves a cut off the balanced position only
+ * where longer crossing lines save more meetings than the imbalance costs. Junctions are first
+ * put in breadth-first order so that each
  * thread's share is a connected piece of the network.
  */
 import type { Plan } from '../compile/compile.ts';
@@ -56,43 +57,72 @@ function minCrossingDelay(plan: Plan, owner: Int32Array): { K: number; crossing:
   return { K, crossing };
 }
 
+/** How the cut between threads is chosen. */
+export interface PartitionOptions {
+  /** How far a cut may move from the balanced position, as a fraction of one share (default 0.15). */
+  balanceSlack?: number;
+  /** Estimated cost of one line-end port update [s] (default 10 ns). */
+  portCostS?: number;
+  /** Estimated cost of one meeting of the threads [s] (default 0.2 ms, measured in benchmarks/partition). */
+  barrierS?: number;
+}
+
 /**
- * Splits the junctions over `threads` threads.
- * @param balanceSlack how far a cut may move from the balanced position, as a fraction of one share.
+ * Stepping cost of each junction in multiply-adds of its update (junctionStep.ts): incident
+ * waves M, right-hand side R M, solve R^2, emitted waves M N, plus R for the history copy of a
+ * partitioned run. Balancing on this rather than on port counts keeps mixed networks (one- and
+ * four-conductor branches, big and small junctions) even.
  */
-export function partitionNetwork(plan: Plan, threads: number, balanceSlack = 0.15): Partition {
+export function junctionCost(plan: Plan, j: number): number {
+  const M = plan.jPort[j + 1] - plan.jPort[j];
+  const R = plan.jX[j + 1] - plan.jX[j];
+  const N = plan.jN[j];
+  return 1 + M + R * M + R * R + M * N + R;
+}
+
+/**
+ * Splits the junctions over `threads` threads. Each cut between consecutive threads (in
+ * breadth-first order) is placed where the estimated run time is least: the time the larger
+ * side spends beyond its even share, plus the meetings that the shortest crossing delay forces
+ * (nSteps / K of them, each `barrierS`).
+ */
+export function partitionNetwork(plan: Plan, threads: number, options: PartitionOptions = {}): Partition {
+  const balanceSlack = options.balanceSlack ?? 0.15;
+  const barrierS = options.barrierS ?? 2e-4;
   const nJ = plan.nJunctions;
   const order = breadthFirstOrder(plan);
-  const weight = (j: number): number => 1 + (plan.jPort[j + 1] - plan.jPort[j]);
   const prefix = new Float64Array(nJ + 1);
-  for (let i = 0; i < nJ; i++) prefix[i + 1] = prefix[i] + weight(order[i]);
+  for (let i = 0; i < nJ; i++) prefix[i + 1] = prefix[i] + junctionCost(plan, order[i]);
   const total = prefix[nJ];
+  // Seconds per unit of cost, from the per-port estimate.
+  const unitS = ((options.portCostS ?? 10e-9) * Math.max(1, plan.nPorts)) / Math.max(1, total);
+  const steps = plan.nSteps + 1;
+  const pos = new Int32Array(nJ);
+  for (let i = 0; i < nJ; i++) pos[order[i]] = i;
   const cuts: number[] = [];
   for (let t = 1; t < threads; t++) {
     const target = (total * t) / threads;
-    let best = -1;
-    let bestDelay = -1;
     const lo = target - (balanceSlack * total) / threads;
     const hi = target + (balanceSlack * total) / threads;
-    // Candidate cut positions within the slack (at most 64, evenly spread), scored by the
-    // shortest delay of the lines that cross this one cut.
-    const pos = new Int32Array(nJ);
-    for (let i = 0; i < nJ; i++) pos[order[i]] = i;
+    // The balanced cut, and at most 64 others evenly spread within the slack.
+    let balanced = 1;
+    while (balanced < nJ - 1 && prefix[balanced] < target) balanced++;
     const cand: number[] = [];
     for (let c = 1; c < nJ; c++) if (prefix[c] >= lo && prefix[c] <= hi) cand.push(c);
     const stride = Math.max(1, Math.ceil(cand.length / 64));
-    for (let ci = 0; ci < cand.length; ci += stride) {
-      const c = cand[ci];
+    const tried = [balanced];
+    for (let ci = 0; ci < cand.length; ci += stride) tried.push(cand[ci]);
+    let best = balanced;
+    let bestS = Infinity;
+    for (const c of tried) {
       let d = Infinity;
       plan.scenario.lines.forEach((l, i) => {
         if ((pos[l.from] < c) === (pos[l.to] < c)) return;
         for (let m = 0; m < plan.modal[i].n; m++) d = Math.min(d, plan.delays[plan.lineModeOff[i] + m].k);
       });
-      if (d > bestDelay) { bestDelay = d; best = c; }
-    }
-    if (best < 0) {
-      best = 1;
-      while (best < nJ && prefix[best] < target) best++;
+      const meetings = Number.isFinite(d) ? Math.ceil(steps / Math.max(1, d)) : 1;
+      const estS = steps * unitS * Math.abs(prefix[c] - target) + meetings * barrierS;
+      if (estS < bestS) { bestS = estS; best = c; }
     }
     cuts.push(best);
   }

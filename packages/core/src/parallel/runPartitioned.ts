@@ -13,6 +13,7 @@ import { SkeinError } from '../errors.ts';
 import type { NodeHandle, PartHandle, PointHandle, PortHandle, ProbeSetupContext, StructuredOutput, TraceHandle } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
 import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts';
+import type { ResolvedScenario } from '../model.ts';
 import { runPlan, type RunOptions, type RunResult, type StepDriver } from '../run/run.ts';
 import { partitionNetwork, type Partition } from './partition.ts';
 import { allocateShared, CONTROL_WORDS, DONE, ERROR, GO, historyRow } from './shared.ts';
@@ -62,7 +63,7 @@ export function decidePartition(plan: Plan, opts: PartitionedOptions): { partiti
   let best: Partition | undefined;
   let reason = '';
   for (let t = Math.min(asked, cores, plan.nJunctions); t >= 2; t--) {
-    const p = partitionNetwork(plan, t);
+    const p = partitionNetwork(plan, t, { portCostS: portCost });
     const perRow = 8 * 2 * (plan.x.length + plan.slot.length + plan.parts.length);
     const K = Math.max(1, Math.min(p.K, Math.floor(maxHist / Math.max(1, perRow)), plan.nSteps + 1));
     const blockWork = (K * portCost * Math.max(...p.work)) ;
@@ -90,21 +91,22 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
     ? resolveScenarioText(source.text, { registry, file: source.file })
     : resolveScenarioData(source.data, { registry, file: source.file });
   const t0 = performance.now();
-  const probePlan = await compileScenario(resolve(), { registry, onWarning: opts.onWarning });
-  const { partition, decision } = decidePartition(probePlan, opts);
+  const scenario = resolve();
+  const firstPlan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
+  const { partition, decision } = decidePartition(firstPlan, opts);
   if (!partition) {
-    const r = await runPlan(probePlan, opts, (performance.now() - t0) / 1000);
+    const r = await runPlan(firstPlan, opts, (performance.now() - t0) / 1000);
     if (decision.asked > 1) r.warnings.push(`ran on 1 thread of ${decision.asked} asked: ${decision.reason}`);
     return Object.assign(r, { partition: decision });
   }
   const K = partition.K;
   // The replay one block behind the workers reads waves from the rings only for probes that ask
   // for line ends, line points or the ledger; only then do the rings need two blocks of slack
-  // (which costs memory and, beyond the cache, time).
-  const slack = (await probesReadWaves(probePlan, registry)) ? 2 * K : 0;
-  const plan = await compileScenario(resolve(), { registry, ringSlackSteps: slack });
+  // (which costs memory and, beyond the cache, time) and the plan is compiled again with it.
+  const slack = (await probesReadWaves(firstPlan, registry)) ? 2 * K : 0;
+  const plan = slack > 0 ? await compileScenario(resolve(), { registry, ringSlackSteps: slack }) : firstPlan;
   const compileS = (performance.now() - t0) / 1000;
-  const driver = partitionedDriver(plan, partition, source, registry, slack);
+  const driver = partitionedDriver(plan, partition, source, scenario, registry, slack);
   const r = await runPlan(plan, { ...opts, driver }, compileS);
   r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
   return Object.assign(r, { partition: decision });
@@ -141,7 +143,11 @@ async function probesReadWaves(plan: Plan, registry: PluginRegistry): Promise<bo
   return reads;
 }
 
-function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, registry: PluginRegistry, slack: number): StepDriver {
+function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, slack: number): StepDriver {
+  // The workers get the resolved scenario (a structured copy costs a fraction of resolving it
+  // again) unless it holds functions: sections of lines evaluate R(f), L(f), G(f), C(f) by
+  // closures, so such scenarios are resolved again from their source in each worker.
+  const resolved = scenario.lines.some((l) => l.section !== undefined) ? undefined : { ...scenario, locate: undefined };
   const K = partition.K;
   const T = partition.threads;
   const layout = { K, nX: plan.x.length, nSlots: plan.slot.length, nParts: plan.parts.length, waveLength: plan.wave.length };
@@ -162,12 +168,25 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
       const errors: Array<{ message: string; code?: string; details?: Record<string, unknown> }> = [];
       const finished: Array<Promise<void>> = [];
       const ready: Array<Promise<void>> = [];
+      // Worker start-up (copying the scenario, loading, compiling) is reported apart from stepping.
+      const tSetup = performance.now();
       for (let t = 0; t < T; t++) {
         const init: WorkerInit = {
           entry: WORKER_ENTRY, self: t, threads: T, K, ringSlackSteps: slack, modules: [...registry.modules],
-          source: { text: source.text, data: source.data, file: source.file }, owner: partition.owner, shared,
+          source: { file: source.file }, resolved, owner: partition.owner, shared,
         };
-        const w = new Worker(BOOTSTRAP, { workerData: init });
+        const fromSource = (): Worker => new Worker(BOOTSTRAP, { workerData: { ...init, resolved: undefined, source: { text: source.text, data: source.data, file: source.file } } });
+        let w: Worker;
+        if (!resolved) w = fromSource();
+        else {
+          try {
+            w = new Worker(BOOTSTRAP, { workerData: init });
+          } catch (e) {
+            // A plugin parameter that cannot be copied (a function, say): resolve in the worker.
+            if ((e as Error).name !== 'DataCloneError') throw e;
+            w = fromSource();
+          }
+        }
         workers.push(w);
         let onReady: () => void = () => {};
         ready.push(new Promise<void>((res) => { onReady = res; }));
@@ -201,10 +220,8 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
         throw new SkeinError(e.code ?? 'E_WORKER', `partitioned run: ${e.message}`, e.details ?? {});
       };
       try {
-        const tSetup = performance.now();
         await Promise.all(ready);
         if (errors.length > 0) fail();
-        // Worker start-up (loading, resolving, compiling) is reported apart from stepping.
         io.timing.workerSetup = (performance.now() - tSetup) / 1000;
         const nBlocks = Math.floor(p.nSteps / K) + 1;
         const varyingLoads = [...p.varying.flatMap((v) => v.loads), ...p.nonlinear.flatMap((v) => v.varying)];
@@ -246,10 +263,14 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
         replay(nBlocks - 1);
         await Promise.all(finished);
         if (errors.length > 0) fail();
-      } finally {
+        // The workers have posted their results and end by themselves; their teardown (freeing
+        // their plans) overlaps with this thread's finish.
+        for (const w of workers) void w.terminate();
+      } catch (e) {
         Atomics.store(control, ERROR, Atomics.load(control, ERROR) || 2);
         Atomics.notify(control, GO);
         await Promise.all(workers.map((w) => w.terminate()));
+        throw e;
       }
     },
   };

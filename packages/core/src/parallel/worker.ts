@@ -9,6 +9,7 @@ import { SkeinError } from '../errors.ts';
 import { PluginRegistry, loadPluginModules } from '../plugins/registry.ts';
 import type { StructuredOutput } from '../plugins/api.ts';
 import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts';
+import type { ResolvedScenario } from '../model.ts';
 import { acceptNonlinear, phaseNonlinear } from '../run/newton.ts';
 import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSwitches } from '../run/step.ts';
 import { CONTROL_WORDS, DONE, ERROR, GO, historyRow, type SharedBuffers } from './shared.ts';
@@ -22,6 +23,8 @@ export interface WorkerInit {
   ringSlackSteps: number;
   modules: string[];
   source: { text?: string; data?: unknown; file?: string };
+  /** The main thread's resolved scenario without its `locate` (see runPartitioned.ts), or undefined. */
+  resolved?: Omit<ResolvedScenario, 'locate'> & { locate?: undefined };
   owner: Int32Array;
   shared: SharedBuffers;
 }
@@ -31,7 +34,10 @@ async function main(init: WorkerInit): Promise<void> {
   let blocksDone = 0;
   try {
     const registry = await loadPluginModules(new PluginRegistry(), init.modules);
-    const scenario = init.source.text !== undefined
+    const file = init.source.file;
+    const scenario: ResolvedScenario = init.resolved
+      ? { ...init.resolved, locate: () => ({ file }) }
+      : init.source.text !== undefined
       ? resolveScenarioText(init.source.text, { registry, file: init.source.file })
       : resolveScenarioData(init.source.data, { registry, file: init.source.file });
     const plan = await compileScenario(scenario, { registry, ringSlackSteps: init.ringSlackSteps });
@@ -98,7 +104,8 @@ async function main(init: WorkerInit): Promise<void> {
         if (plan.varying.length > 0) phaseSwitches(plan, tS);
         phaseJunctions(plan, ownedRuns, n);
         if (plan.nonlinear.length > 0) phaseNonlinear(plan, n, tS);
-        computeParts(plan, partV, partI, partU);
+        // Branch values are needed here by accept hooks only (the main thread's replay computes its own).
+        if (plan.acceptLoads.length > 0) computeParts(plan, partV, partI, partU);
         acceptParts(plan, tS, partV, partI);
         if (plan.nonlinear.length > 0) acceptNonlinear(plan, tS);
         const h = historyRow(n, K);
