@@ -3,7 +3,7 @@
 // only on another thread. The network mixes one- and two-conductor lines, reactive loads, a timed
 // switch and a nonlinear diode, with fractional delays.
 import { describe, expect, it } from 'vitest';
-import { resolveScenarioText, runPartitioned, runScenario } from '@skein/core';
+import { compileScenario, junctionCost, partitionNetwork, resolveScenarioText, runPartitioned, runScenario, type Partition } from '@skein/core';
 import { standardRegistry } from '../support/run.ts';
 
 function chain(n: number): string {
@@ -47,7 +47,83 @@ probes:
 `;
 }
 
+/** A tree of four-conductor lines with node-voltage probes only (no probe reads waves). */
+function tree4(n: number): string {
+  const L = '[[0.9uH/m, 0.15uH/m, 0.08uH/m, 0.05uH/m], [0.15uH/m, 0.9uH/m, 0.15uH/m, 0.08uH/m], [0.08uH/m, 0.15uH/m, 0.9uH/m, 0.15uH/m], [0.05uH/m, 0.08uH/m, 0.15uH/m, 0.9uH/m]]';
+  const C = '[[13pF/m, -2pF/m, -1pF/m, -0.5pF/m], [-2pF/m, 14pF/m, -2pF/m, -1pF/m], [-1pF/m, -2pF/m, 14pF/m, -2pF/m], [-0.5pF/m, -1pF/m, -2pF/m, 13pF/m]]';
+  const cs = ['a', 'b', 'c', 'd'];
+  const parent = (j: number) => Math.max(0, j - 1 - ((j * 7) % 3));
+  const on: string[][][] = Array.from({ length: n }, () => cs.map(() => []));
+  const lines: string[] = [];
+  for (let j = 1; j < n; j++) {
+    lines.push(`  t${j}: { from: N${parent(j)}, to: N${j}, length: ${(1.1 + (j % 4) * 0.3).toFixed(1)}m, conductors: [${cs.join(', ')}], inductance: ${L}, capacitance: ${C} }`);
+    cs.forEach((c, k) => { on[parent(j)][k].push(`t${j}.${c}`); on[j][k].push(`t${j}.${c}`); });
+  }
+  const junctions = on.map((nodes, j) => {
+    const parts: string[] = [];
+    if (j === 0) parts.push('src: { source: trapezoid, between: [a, ref], amplitude: 2, rise: 1ns, width: 6ns, fall: 1ns, resistance: 40ohm }');
+    if (j % 5 === 4) cs.forEach((c) => parts.push(`R${j}${c}: { load: resistor, between: [${c}, ref], resistance: ${120 + j}ohm }`));
+    if (j % 11 === 7) parts.push(`C${j}: { load: capacitor, between: [b, c], capacitance: 15pF }`);
+    const nodeText = cs.map((c, k) => `${c}: [${nodes[k].join(', ')}]`).join(', ');
+    return `  N${j}:\n    nodes: { ${nodeText} }${parts.length ? `\n    parts: { ${parts.join(', ')} }` : ''}`;
+  });
+  return `skein: 1
+title: four-conductor tree
+time: { end: 60ns, step: 0.05ns }
+lines:
+${lines.join('\n')}
+junctions:
+${junctions.join('\n')}
+probes:
+  v0: { probe: node-voltage, node: N0.a }
+  v1: { probe: node-voltage, node: N${n - 1}.b }
+  v2: { probe: node-voltage, node: N${Math.floor(n / 2)}.d }
+`;
+}
+
+describe('partitionNetwork', () => {
+  it('balances the stepping cost to within one junction when meetings cost nothing, and trades balance for longer crossings when they do', async () => {
+    const registry = await standardRegistry();
+    const plan = await compileScenario(resolveScenarioText(tree4(60), { registry, file: 'tree4.yaml' }), { registry });
+    const cost = (p: Partition) => {
+      const c = [0, 0];
+      for (let j = 0; j < plan.nJunctions; j++) c[p.owner[j]] += junctionCost(plan, j);
+      return c;
+    };
+    let maxJ = 0;
+    for (let j = 0; j < plan.nJunctions; j++) maxJ = Math.max(maxJ, junctionCost(plan, j));
+    const even = partitionNetwork(plan, 2, { barrierS: 0 });
+    const [c0, c1] = cost(even);
+    expect(Math.abs(c0 - c1)).toBeLessThanOrEqual(maxJ);
+    // With expensive meetings the cut moves (within the 15 % slack) to a longer crossing delay.
+    const costly = partitionNetwork(plan, 2, { barrierS: 1 });
+    expect(costly.K).toBeGreaterThanOrEqual(even.K);
+    const [d0, d1] = cost(costly);
+    // The cut stays within the slack: each side within 0.15 of a share of its own, so the
+    // difference within 0.15 of the total.
+    expect(Math.abs(d0 - d1)).toBeLessThanOrEqual(0.15 * (d0 + d1) + maxJ);
+  });
+});
+
 describe('runPartitioned', () => {
+  it('equals the single-thread run bit for bit on four-conductor lines, with probes that read no waves', async () => {
+    const registry = await standardRegistry();
+    const text = tree4(60);
+    const serial = await runScenario(resolveScenarioText(text, { registry, file: 'tree4.yaml' }), { registry });
+    const parallel = await runPartitioned({ text, file: 'tree4.yaml' }, { registry, threads: 2, minBlockWorkS: 0 });
+    expect(parallel.partition.used).toBe(2);
+    expect(parallel.partition.crossing).toBeGreaterThan(0);
+    const a = serial.traces.data;
+    const b = parallel.traces.data;
+    expect(b.length).toBe(a.length);
+    let peak = 0;
+    for (let i = 0; i < a.length; i++) peak = Math.max(peak, Math.abs(a[i]));
+    expect(peak).toBeGreaterThan(0.1);
+    let differing = 0;
+    for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) differing++;
+    expect(differing).toBe(0);
+  });
+
   it('equals the single-thread run bit for bit', async () => {
     const registry = await standardRegistry();
     const text = chain(40);

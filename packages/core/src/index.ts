@@ -37,7 +37,7 @@ export {
 } from './conformance/index.ts';
 export { NEWTON_MAX_ITERATIONS } from './run/newton.ts';
 export { runPartitioned, decidePartition, type ScenarioSource, type PartitionedOptions, type PartitionDecision } from './parallel/runPartitioned.ts';
-export { partitionNetwork, breadthFirstOrder, type Partition } from './parallel/partition.ts';
+export { partitionNetwork, breadthFirstOrder, junctionCost, type Partition, type PartitionOptions } from './parallel/partition.ts';
 export { junctionStep } from './kernel/junctionStep.ts';
 export { junctionStepScalar } from './kernel/junctionStepScalar.ts';
 export { junctionStepBlocked } from './kernel/junctionStepBlocked.ts';
