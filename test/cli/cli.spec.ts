@@ -1,5 +1,5 @@
 // The skein command, end to end through main(): each command's output and files.
-import { existsSync, mkdtempSync, readFileSync, copyFileSync } from 'node:fs';
+import { existsSync, mkdtempSync, readFileSync, copyFileSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -77,6 +77,45 @@ describe('skein command', () => {
     expect(t[0]).toBe('# Hz S RI R 50');
     expect(t.filter((l) => /^\d/.test(l)).length).toBe(4);
     expect(existsSync(join(dir, 'feeder.spectrum.msgpack'))).toBe(true);
+  });
+
+  it('gives a time response from the spectrum by the numerical Laplace transform, as traces', async () => {
+    // Bewley lattice (L. V. Bewley, Trans. AIEE 50, 1931, from memory; REFERENCES.md): 25 ohm
+    // source, 50 ohm line of 1 us, 100 ohm load: load voltage 0.88888889 on 1-3 us, 0.79012346 on
+    // 3-5 us, 0.80109739 on 5-7 us, once the 100 ns edge has settled.
+    const dir = mkdtempSync(join(tmpdir(), 'skein-cli-'));
+    const scenario = join(dir, 'lattice.yaml');
+    writeFileSync(scenario, `skein: 1
+time: { end: 7us }
+lines:
+  tl: { from: S, to: L, length: 200m, impedance: 50ohm, velocity: 2e8m/s }
+junctions:
+  S:
+    nodes: { s: [tl] }
+    parts:
+      gen: { source: step, between: [s, ref], amplitude: 1, rise: 100ns, edge: smooth, resistance: 25ohm }
+  L:
+    nodes: { l: [tl] }
+    parts:
+      RL: { load: resistor, between: [l, ref], resistance: 100ohm }
+`);
+    const c = capture();
+    expect(await main(['spectrum', scenario, '--until', '7us', '--every', '1us', '--inversion', 'laplace', '--out', 'v(L.l)', '--quiet'], c.io)).toBe(0);
+    expect(c.out.join('\n')).toContain('numerical Laplace transform: sigma');
+    const r = readResults(join(dir, 'lattice.spectrum.msgpack'));
+    expect(r.doc.traces.names).toEqual(['v(L.l)']);
+    expect(r.time.length).toBe(8);
+    const v = r.trace('v(L.l)');
+    // Measured 1e-11, 3.1e-9, 3.8e-9 off the published 8 digits (their rounding, 5e-9); 2e-8.
+    expect(Math.abs(v[2] - 0.88888889)).toBeLessThan(2e-8);
+    expect(Math.abs(v[4] - 0.79012346)).toBeLessThan(2e-8);
+    expect(Math.abs(v[6] - 0.80109739)).toBeLessThan(2e-8);
+    expect((r.doc.outputs as { timeResponse: { kind: string } }).timeResponse.kind).toBe('laplace');
+    // Bad flags: a clear error and exit code 2.
+    const e = capture();
+    expect(await main(['spectrum', scenario, '--until', '7us', '--every', '1us', '--inversion', 'z'], e.io)).toBe(2);
+    expect(e.err.join('\n')).toContain('--inversion');
+    expect(await main(['spectrum', scenario, '--until', '7us', '--aliasing', '1e-8'], e.io)).toBe(2);
   });
 
   it('refuses unknown commands and bad usage with exit code 2', async () => {

@@ -51,6 +51,14 @@ commands:
                                the exact frequency-domain solution: node voltages, currents,
                                transfer functions h(J.b/J.a), impedances z(J.n), S-parameters
                                between ports (Touchstone); results in FILE.spectrum.msgpack
+  spectrum FILE --until T --every DT [--inversion fourier|laplace] [--aliasing 1e-10] [--fmax F]
+           [--out v(J.n) | i(line.end)]...
+                               time response from the spectrum (reference for the transient
+                               solver): 'fourier' sums the series on the j omega axis, doubling
+                               the period until the wrap-around is below 1e-6; 'laplace' is the
+                               numerical Laplace transform, one pass damped by sigma =
+                               ln(1/aliasing)/period (every load needs admittanceAt); table on
+                               stdout, traces in FILE.spectrum.msgpack
 
 options for every command that reads a scenario:
   --plugin SPEC                also load this plugin module (repeatable)
@@ -288,10 +296,10 @@ async function spectrumCommand(args: string[], io: Io): Promise<number> {
     const cmd = parseSpectrumArgs(rest);
     const registry = await buildRegistry(flags);
     const sc = readScenario(cmd.scenarioFile, registry);
-    const { section, table, touchstone } = await runSpectrumCommand(cmd, sc, registry);
+    const { section, table, touchstone, time } = await runSpectrumCommand(cmd, sc, registry);
     io.out(table);
     const out = flags.results ?? cmd.scenarioFile.replace(/\.(ya?ml|json)$/i, '') + '.spectrum.msgpack';
-    writeFileAtomic(out, encodeResults(spectralResultsDocument(sc, section)));
+    writeFileAtomic(out, encodeResults(spectralResultsDocument(sc, section, new Date(), time)));
     io.out(`Results: ${out}`);
     if (touchstone !== undefined && cmd.touchstoneFile) {
       writeFileAtomic(cmd.touchstoneFile, touchstone);

@@ -14,4 +14,4 @@ export { timeResponse, fft, type TimeResponseOptions, type TimeResponse, type Ti
 export { lineBlock, lineModes, type LineBlock, type LineModes } from './lineBlock.ts';
 export { missingHook, notContinuable, singularNetwork, badTouchstone } from './errors.ts';
 export { cZeros, cFrom, cIdentity, cMul, cLu, cLuSolve, cInverse, cEigen, csqrt, type CMatrix, type CLu, type CEigen } from './complex.ts';
-export { parseSpectrumArgs, spectralSection, formatSpectrumTable, runSpectrumCommand, type SpectrumCommand } from './command.ts';
+export { parseSpectrumArgs, spectralSection, formatSpectrumTable, formatTimeTable, runSpectrumCommand, type SpectrumCommand, type TimeResponseCommand } from './command.ts';
