@@ -1,10 +1,12 @@
 /**
- * FDTD segment kernel throughput: core's `fdtdStep` (TypeScript) against its C twin `fdtd.c`
- * (same loops, layout and update order, gcc -O3 -march=native) in the same run, on segments of 1
- * and 4 conductors with 10^3 .. 10^6 cells. Inputs are built before the timer; the outputs of the
- * two are compared to 1e-12 (relative to the largest magnitude) after the timed steps.
+ * FDTD segment kernel throughput: the kernel core steps a segment with (`fdtdKernelFor(n)`, the
+ * unrolled fast path for n = 1..4) against its C twin in `fdtd.c` (same loops, layout and update
+ * order, gcc -O3 -march=native) in the same run, on segments of 1 and 4 conductors (optionally 2
+ * and 3) with 10^3 .. 10^6 cells; core's general loop `fdtdStep` and its C twin are timed beside
+ * them. Inputs are built before the timer; the outputs of each TS kernel and the C twins are
+ * compared to 1e-12 (relative to the largest magnitude) after the timed steps.
  *
- * Run: `npx tsx benchmarks/fdtd/fdtdBench.ts [--quick] [--out FILE]`.
+ * Run: `npx tsx benchmarks/fdtd/fdtdBench.ts [--quick] [--n 1,2,3,4] [--out FILE]`.
  */
 import { execFileSync } from 'node:child_process';
 import { mkdtempSync, readFileSync, rmSync, writeFileSync } from 'node:fs';
@@ -12,10 +14,9 @@ import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Matrix, inverse } from 'ml-matrix';
-import { createFdtdLine, type FdtdLine } from '../../packages/core/src/compile/fdtd.ts';
+import { createFdtdLine, type FdtdKernel, type FdtdLine } from '../../packages/core/src/compile/fdtd.ts';
 import { fdtdStep } from '../../packages/core/src/kernel/fdtdStep.ts';
 import type { ResolvedLine } from '../../packages/core/src/model.ts';
-import { fdtdStep4 } from './fdtdStep4.ts';
 
 /** One benchmark case: conductors n, cells, steps per timed run. */
 export interface FdtdCase {
@@ -26,22 +27,25 @@ export interface FdtdCase {
 
 /** Figures of one case. */
 export interface FdtdCaseResult extends FdtdCase {
-  /** Best wall time of the timed runs [s]. */
+  /** Best wall time of the timed runs [s]: core's kernel for this n and its C twin. */
   tsS: number;
   cS: number;
   /** Cell updates per second (one cell-step = one cell's current and voltage update) [1/s]. */
   tsCellStepsPerS: number;
   cCellStepsPerS: number;
-  /** TS throughput over C throughput. */
+  /** Core's kernel's throughput over its C twin's. */
   ratio: number;
   /** Largest |TS - C| over the state after the timed steps, relative to the largest |value|. */
   deviation: number;
   checksumTs: number;
   checksumC: number;
-  /** n = 4 only: the hand-specialised TS kernel (fdtdStep4.ts, an experiment) [1/s], its ratio to C, its deviation from C. */
-  ts4CellStepsPerS?: number;
-  ratio4?: number;
-  deviation4?: number;
+  /** Core's general loop fdtdStep and its C twin (the same as above for n > 4) [1/s]. */
+  tsGeneralCellStepsPerS: number;
+  cGeneralCellStepsPerS: number;
+  /** Core's kernel over the C twin of the general loop, and the general loops' ratio. */
+  ratioToCGeneral: number;
+  ratioGeneral: number;
+  deviationGeneral: number;
 }
 
 /** Seeded PRNG (mulberry32, common practice) in [0, 1). */
@@ -87,10 +91,13 @@ export function buildSegment(n: number, cells: number, seed = 1): FdtdLine {
   return f;
 }
 
-/** Runs `steps` kernel steps on the segment's state in place; returns the cells updated. */
-export function runTs(f: FdtdLine, steps: number): number {
+/**
+ * Runs `steps` kernel steps on the segment's state in place: core's kernel for the segment
+ * (`f.step`, chosen by createFdtdLine) unless another is given; returns the cells updated.
+ */
+export function runTs(f: FdtdLine, steps: number, kernel: FdtdKernel = f.step): number {
   let updated = 0;
-  for (let s = 0; s < steps; s++) updated += fdtdStep(f.n, f.cells, f.Av, f.Bv, f.Ai, f.Bi, f.gm, f.V, f.I, f.iEnd, f.hEnd, f.tmp);
+  for (let s = 0; s < steps; s++) updated += kernel(f.n, f.cells, f.Av, f.Bv, f.Ai, f.Bi, f.gm, f.V, f.I, f.iEnd, f.hEnd, f.tmp);
   return updated;
 }
 
@@ -125,7 +132,7 @@ export function buildCTwin(): { dir: string; exe: string } {
 
 /** Writes the C twin's input file (see fdtd.c) for the segment's current state. */
 export function writeInput(path: string, f: FdtdLine): void {
-  const parts = [Float64Array.of(f.n, f.cells), f.Av, f.Bv, f.Ai, f.Bi, f.gm, f.V, f.I, f.iEnd];
+  const parts = [Float64Array.of(f.n, f.cells), f.Av, f.Bv, f.Ai, f.Bi, f.gm.subarray(0, f.n * f.n), f.V, f.I, f.iEnd];
   const total = parts.reduce((s, p) => s + p.length, 0);
   const all = new Float64Array(total);
   let o = 0;
@@ -134,14 +141,15 @@ export function writeInput(path: string, f: FdtdLine): void {
 }
 
 /**
- * Runs the C twin: `steps` steps from the input state, best of `reps`.
+ * Runs the C twin: `steps` steps from the input state, best of `reps`, with the C twin of core's
+ * general loop or of the unrolled kernel core picks for n = 1..4.
  * @returns best time [s], checksum, cells updated and the final V, I, hEnd.
  */
-export function runC(exe: string, dir: string, f: FdtdLine, steps: number, reps: number): { timeS: number; checksum: number; updated: number; V: Float64Array; I: Float64Array; hEnd: Float64Array } {
+export function runC(exe: string, dir: string, f: FdtdLine, steps: number, reps: number, kernel: 'general' | 'unrolled' = 'unrolled'): { timeS: number; checksum: number; updated: number; V: Float64Array; I: Float64Array; hEnd: Float64Array } {
   const inp = join(dir, 'in.bin');
   const out = join(dir, 'out.bin');
   writeInput(inp, f);
-  const line = execFileSync(exe, [inp, out, String(steps), String(reps)], { encoding: 'utf8' }).trim().split(/\s+/);
+  const line = execFileSync(exe, [inp, out, String(steps), String(reps), kernel], { encoding: 'utf8' }).trim().split(/\s+/);
   const buf = readFileSync(out);
   const all = new Float64Array(buf.buffer.slice(buf.byteOffset, buf.byteOffset + buf.byteLength));
   const nv = f.V.length;
@@ -165,59 +173,55 @@ export function deviation(a: { V: Float64Array; I: Float64Array; hEnd: Float64Ar
   return d / (m || 1);
 }
 
-/**
- * Times one case in both languages: TS best of `reps` runs (state reset from the initial copy
- * outside the timer), the C twin the same, then compares the final states.
- */
-export function runCase(c: FdtdCase, exe: string, dir: string, reps = 3): FdtdCaseResult {
-  const f = buildSegment(c.n, c.cells);
-  const V0 = f.V.slice();
-  const I0 = f.I.slice();
-  const cr = runC(exe, dir, f, c.steps, reps);
-  // Warm-up on a copy so the JIT has compiled the kernel before the timer.
-  runTs(buildSegment(c.n, Math.min(c.cells, 1000)), 200);
+/** Best of `reps` timed runs of `kernel` on the segment from its initial state (reset outside the timer) [s]. */
+function timeTs(f: FdtdLine, V0: Float64Array, I0: Float64Array, steps: number, reps: number, kernel: FdtdKernel): { timeS: number; updated: number } {
+  // Warm-up on a small copy so the JIT has compiled the kernel before the timer.
+  runTs(buildSegment(f.n, Math.min(f.cells, 1000)), 200, kernel);
   let best = Infinity;
   let updated = 0;
   for (let r = 0; r < reps; r++) {
     f.V.set(V0);
     f.I.set(I0);
     const t0 = process.hrtime.bigint();
-    updated = runTs(f, c.steps);
-    const t = Number(process.hrtime.bigint() - t0) * 1e-9;
-    best = Math.min(best, t);
+    updated = runTs(f, steps, kernel);
+    best = Math.min(best, Number(process.hrtime.bigint() - t0) * 1e-9);
   }
-  if (updated !== cr.updated) throw new Error(`cell count differs: TS ${updated}, C ${cr.updated}`);
+  return { timeS: best, updated };
+}
+
+/**
+ * Times one case: core's kernel for this n and its C twin, then core's general loop and its C
+ * twin, each best of `reps` (state reset outside the timer), and compares the final states.
+ */
+export function runCase(c: FdtdCase, exe: string, dir: string, reps = 3): FdtdCaseResult {
+  const f = buildSegment(c.n, c.cells);
+  const V0 = f.V.slice();
+  const I0 = f.I.slice();
+  const cr = runC(exe, dir, f, c.steps, reps, 'unrolled');
+  const tr = timeTs(f, V0, I0, c.steps, reps, f.step);
+  if (tr.updated !== cr.updated) throw new Error(`cell count differs: TS ${tr.updated}, C ${cr.updated}`);
+  const g = buildSegment(c.n, c.cells);
+  const cg = runC(exe, dir, g, c.steps, reps, 'general');
+  const tg = timeTs(g, V0, I0, c.steps, reps, fdtdStep);
   const cellSteps = c.cells * c.steps;
-  let extra: Partial<FdtdCaseResult> = {};
-  if (c.n === 4) {
-    const w = buildSegment(4, 1000);
-    for (let s = 0; s < 200; s++) fdtdStep4(w.cells, w.Av, w.Bv, w.Ai, w.Bi, w.gm, w.V, w.I, w.iEnd, w.hEnd);
-    const g = buildSegment(4, c.cells);
-    let best4 = Infinity;
-    for (let r = 0; r < reps; r++) {
-      g.V.set(V0);
-      g.I.set(I0);
-      const t0 = process.hrtime.bigint();
-      for (let s = 0; s < c.steps; s++) fdtdStep4(g.cells, g.Av, g.Bv, g.Ai, g.Bi, g.gm, g.V, g.I, g.iEnd, g.hEnd);
-      best4 = Math.min(best4, Number(process.hrtime.bigint() - t0) * 1e-9);
-    }
-    extra = { ts4CellStepsPerS: cellSteps / best4, ratio4: cr.timeS / best4, deviation4: deviation(g, cr) };
-  }
   return {
-    ...c, tsS: best, cS: cr.timeS,
-    tsCellStepsPerS: cellSteps / best, cCellStepsPerS: cellSteps / cr.timeS,
-    ratio: cr.timeS / best,
+    ...c, tsS: tr.timeS, cS: cr.timeS,
+    tsCellStepsPerS: cellSteps / tr.timeS, cCellStepsPerS: cellSteps / cr.timeS,
+    ratio: cr.timeS / tr.timeS,
     deviation: deviation(f, cr),
     checksumTs: checksum(f), checksumC: cr.checksum,
-    ...extra,
+    tsGeneralCellStepsPerS: cellSteps / tg.timeS, cGeneralCellStepsPerS: cellSteps / cg.timeS,
+    ratioToCGeneral: cg.timeS / tr.timeS,
+    ratioGeneral: cg.timeS / tg.timeS,
+    deviationGeneral: Math.max(deviation(g, cg), deviation(f, g)),
   };
 }
 
-/** The cases: n = 1 and 4, cells 10^3 .. 10^6 by decades (quick: 10^3, 10^4), steps for ~targetCellSteps. */
-export function cases(quick: boolean): FdtdCase[] {
+/** The cases: n = 1 and 4 (or `ns`), cells 10^3 .. 10^6 by decades (quick: 10^3, 10^4), about 6e7 / n^2 cell-steps each (quick 2e6 / n^2). */
+export function cases(quick: boolean, ns: number[] = [1, 4]): FdtdCase[] {
   const sizes = quick ? [1e3, 1e4] : [1e3, 1e4, 1e5, 1e6];
   const out: FdtdCase[] = [];
-  for (const n of [1, 4]) {
+  for (const n of ns) {
     for (const cells of sizes) {
       const target = (quick ? 2e6 : 6e7) / (n * n);
       out.push({ n, cells, steps: Math.max(5, Math.round(target / cells)) });
@@ -234,27 +238,29 @@ function fmt(x: number): string {
 export function main(argv: string[]): FdtdCaseResult[] {
   const quick = argv.includes('--quick');
   const oi = argv.indexOf('--out');
+  const ni = argv.indexOf('--n');
+  const ns = ni >= 0 ? argv[ni + 1].split(',').map(Number) : [1, 4];
+  if (!ns.every((n) => Number.isInteger(n) && n >= 1 && n <= 8)) throw new Error(`--n must list conductor counts from 1 to 8, got ${argv[ni + 1]}`);
   const { dir, exe } = buildCTwin();
   const results: FdtdCaseResult[] = [];
   try {
-    for (const c of cases(quick)) {
+    for (const c of cases(quick, ns)) {
       const r = runCase(c, exe, dir, quick ? 1 : 3);
-      const x = r.ts4CellStepsPerS ? `; specialised TS ${fmt(r.ts4CellStepsPerS)}/s ratio ${r.ratio4!.toFixed(3)} dev ${r.deviation4!.toExponential(1)}` : '';
-      process.stderr.write(`n=${r.n} cells=${r.cells} steps=${r.steps}: TS ${fmt(r.tsCellStepsPerS)}/s C ${fmt(r.cCellStepsPerS)}/s ratio ${r.ratio.toFixed(3)} dev ${r.deviation.toExponential(1)}${x}\n`);
+      process.stderr.write(`n=${r.n} cells=${r.cells} steps=${r.steps}: core TS ${fmt(r.tsCellStepsPerS)}/s C twin ${fmt(r.cCellStepsPerS)}/s ratio ${r.ratio.toFixed(3)} dev ${r.deviation.toExponential(1)}; `
+        + `general loops TS ${fmt(r.tsGeneralCellStepsPerS)}/s C ${fmt(r.cGeneralCellStepsPerS)}/s ratio ${r.ratioGeneral.toFixed(3)}; core TS / C general ${r.ratioToCGeneral.toFixed(3)}\n`);
       results.push(r);
     }
   } finally {
     rmSync(dir, { recursive: true, force: true });
   }
-  console.log('| n | cells | steps | TS cell-steps/s | C cell-steps/s | TS/C | deviation | specialised TS (n = 4) | its TS/C |');
-  console.log('|---|---|---|---|---|---|---|---|---|');
+  console.log('| n | cells | steps | core TS cell-steps/s | C twin | TS/C | deviation | general loop TS | general loop C | TS/C (general) | core TS / C general |');
+  console.log('|---|---|---|---|---|---|---|---|---|---|---|');
   for (const r of results) {
-    const x = r.ts4CellStepsPerS ? `${fmt(r.ts4CellStepsPerS)} | ${r.ratio4!.toFixed(3)}` : '- | -';
-    console.log(`| ${r.n} | ${r.cells} | ${r.steps} | ${fmt(r.tsCellStepsPerS)} | ${fmt(r.cCellStepsPerS)} | ${r.ratio.toFixed(3)} | ${r.deviation.toExponential(1)} | ${x} |`);
+    console.log(`| ${r.n} | ${r.cells} | ${r.steps} | ${fmt(r.tsCellStepsPerS)} | ${fmt(r.cCellStepsPerS)} | ${r.ratio.toFixed(3)} | ${r.deviation.toExponential(1)} | ${fmt(r.tsGeneralCellStepsPerS)} | ${fmt(r.cGeneralCellStepsPerS)} | ${r.ratioGeneral.toFixed(3)} | ${r.ratioToCGeneral.toFixed(3)} |`);
   }
   if (oi >= 0) writeFileSync(argv[oi + 1], JSON.stringify(results, null, 2));
-  if (results.some((r) => !(r.deviation <= 1e-12) || (r.deviation4 !== undefined && !(r.deviation4 <= 1e-12)))) {
-    console.error('FAIL: the C twin and the TS kernel differ by more than 1e-12');
+  if (results.some((r) => !(r.deviation <= 1e-12) || !(r.deviationGeneral <= 1e-12))) {
+    console.error('FAIL: a C twin and its TS kernel differ by more than 1e-12');
     process.exitCode = 1;
   }
   return results;

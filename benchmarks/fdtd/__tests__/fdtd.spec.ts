@@ -2,43 +2,40 @@
 // lumped-ladder baseline converges to the exact line solution at its order.
 import { rmSync } from 'node:fs';
 import { afterAll, describe, expect, it } from 'vitest';
-import { buildCTwin, buildSegment, checksum, deviation, runC, runTs } from '../fdtdBench.ts';
-import { fdtdStep4 } from '../fdtdStep4.ts';
+import { fdtdStep } from '../../../packages/core/src/kernel/fdtdStep.ts';
+import { buildCTwin, buildSegment, checksum, deviation, runC, runCase, runTs } from '../fdtdBench.ts';
 import { LINE, buildLadder, reference, runLadder, type LineCase } from '../ladderBench.ts';
 
 describe('fdtdStep C twin', () => {
   let twin: { dir: string; exe: string } | undefined;
   afterAll(() => { if (twin) rmSync(twin.dir, { recursive: true, force: true }); });
 
-  it('matches the TypeScript kernel to 1e-12 on 1- and 4-conductor segments', () => {
+  it('matches the TypeScript kernels to 1e-12 on 1- to 4-conductor segments, general loop and unrolled', () => {
     // Fails with "gcc not found" when the C compiler is missing. The tolerance: both run the same
     // operations in the same order; gcc -O3 -march=native may fuse multiply-adds (FMA), which
     // changes each result by at most an ulp (2.2e-16 relative), and the stable, lossy scheme
     // does not amplify such differences over 300 steps; 1e-12 leaves a wide margin (measured ~1e-15).
     twin = buildCTwin();
-    for (const n of [1, 4]) {
-      const f = buildSegment(n, 64, 7);
-      const c = runC(twin.exe, twin.dir, f, 300, 1);
-      const updated = runTs(f, 300);
-      expect(updated).toBe(c.updated);
-      expect(deviation(f, c), `n = ${n}`).toBeLessThan(1e-12);
-      expect(Math.abs(checksum(f) - c.checksum)).toBeLessThan(1e-9 * Math.max(1, Math.abs(c.checksum)));
-      // The state moved away from its start (a test that the kernel really stepped).
-      expect(deviation(f, buildSegment(n, 64, 7))).toBeGreaterThan(1e-3);
+    for (const n of [1, 2, 3, 4]) {
+      for (const kind of ['general', 'unrolled'] as const) {
+        const f = buildSegment(n, 64, 7);
+        const c = runC(twin.exe, twin.dir, f, 300, 1, kind);
+        const updated = runTs(f, 300, kind === 'general' ? fdtdStep : f.step);
+        expect(updated).toBe(c.updated);
+        expect(deviation(f, c), `n = ${n}, ${kind}`).toBeLessThan(1e-12);
+        expect(Math.abs(checksum(f) - c.checksum)).toBeLessThan(1e-9 * Math.max(1, Math.abs(c.checksum)));
+        // The state moved away from its start (a test that the kernel really stepped).
+        expect(deviation(f, buildSegment(n, 64, 7))).toBeGreaterThan(1e-3);
+      }
     }
   });
-});
 
-describe('fdtdStep4', () => {
-  it('matches the generic kernel to 1e-12 on a 4-conductor segment', () => {
-    // Same operations per cell, grouped differently: rounding differences of a few ulps, not
-    // amplified by the stable scheme over 300 steps; 1e-12 as for the C twin.
-    const f = buildSegment(4, 64, 3);
-    const g = buildSegment(4, 64, 3);
-    runTs(f, 300);
-    for (let s = 0; s < 300; s++) fdtdStep4(g.cells, g.Av, g.Bv, g.Ai, g.Bi, g.gm, g.V, g.I, g.iEnd, g.hEnd);
-    expect(deviation(f, g)).toBeLessThan(1e-12);
-    expect(deviation(f, buildSegment(4, 64, 3))).toBeGreaterThan(1e-3);
+  it('times core\'s kernel and both C twins in one quick case', () => {
+    twin ??= buildCTwin();
+    const r = runCase({ n: 4, cells: 200, steps: 50 }, twin.exe, twin.dir, 1);
+    expect(r.deviation).toBeLessThan(1e-12);
+    expect(r.deviationGeneral).toBeLessThan(1e-12);
+    for (const x of [r.tsCellStepsPerS, r.cCellStepsPerS, r.tsGeneralCellStepsPerS, r.cGeneralCellStepsPerS]) expect(x).toBeGreaterThan(0);
   });
 });
 

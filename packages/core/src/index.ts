@@ -46,6 +46,10 @@ export { junctionStepOneNodeBlocked } from './kernel/junctionStepOneNodeBlocked.
 export { junctionStepOneNodeUnrolled } from './kernel/junctionStepOneNodeUnrolled.ts';
 export { junctionStepFourNodeBlocked } from './kernel/junctionStepFourNodeBlocked.ts';
 export { fdtdStep } from './kernel/fdtdStep.ts';
+export { fdtdStep1 } from './kernel/fdtdStep1.ts';
+export { fdtdStep2 } from './kernel/fdtdStep2.ts';
+export { fdtdStep3 } from './kernel/fdtdStep3.ts';
+export { fdtdStep4 } from './kernel/fdtdStep4.ts';
 export {
   vectorFit, evaluateRational, fitErrors, passivityGrid, enforceAdmittancePassivity, enforceBoundedMagnitude,
   type RationalFunction, type RationalFit, type VectorFitOptions, type PassivityResult,

@@ -14,6 +14,27 @@
  */
 import { Matrix, inverse } from 'ml-matrix';
 import type { ResolvedLine } from '../model.ts';
+import { fdtdStep } from '../kernel/fdtdStep.ts';
+import { fdtdStep1 } from '../kernel/fdtdStep1.ts';
+import { fdtdStep2 } from '../kernel/fdtdStep2.ts';
+import { fdtdStep3 } from '../kernel/fdtdStep3.ts';
+import { fdtdStep4 } from '../kernel/fdtdStep4.ts';
+
+/** The signature every FDTD segment kernel shares (kernel/fdtdStep.ts). */
+export type FdtdKernel = typeof fdtdStep;
+
+const UNROLLED: ReadonlyArray<FdtdKernel> = [fdtdStep1, fdtdStep2, fdtdStep3, fdtdStep4];
+
+/**
+ * The kernel that steps a uniform segment of n conductors: the unrolled fast path for n = 1..4
+ * (kernel/fdtdStep1.ts .. fdtdStep4.ts, same numbers as the general loop), the general loop
+ * kernel/fdtdStep.ts otherwise. Chosen once at compile, never inside the step.
+ * @param n conductors (>= 1).
+ * @example fdtdKernelFor(4) === fdtdStep4 // true; fdtdKernelFor(6) === fdtdStep // true
+ */
+export function fdtdKernelFor(n: number): FdtdKernel {
+  return UNROLLED[n - 1] ?? fdtdStep;
+}
 
 /** One FDTD segment: matrices n x n row-major, state arrays flat. */
 export interface FdtdLine {
@@ -27,7 +48,10 @@ export interface FdtdLine {
   /** I update: I' = Ai I - Bi (V_{k+1} - V_k). */
   Ai: Float64Array;
   Bi: Float64Array;
-  /** End Norton conductance g and the history factor gm = C dz/dt - G dz/2. */
+  /**
+   * End Norton conductance g and the history factor gm = C dz/dt - G dz/2, 2 x n x n: end 0's
+   * matrix, then end N's (the same for a uniform segment, whose kernels read the first).
+   */
   g: Float64Array;
   gm: Float64Array;
   /** Node voltages (N + 1) x n at the last solved step, cell currents N x n at the last half step. */
@@ -40,7 +64,7 @@ export interface FdtdLine {
   slotBase: number;
   /** Global x index of the node of conductor k at end e: xEnd[e n + k]. */
   xEnd: Int32Array;
-  /** Per-unit-length R, L, G, C for the ledger. */
+  /** Per-unit-length R, L, G, C for the ledger (a uniform segment; a varying one has `lumped`). */
   R: Float64Array;
   L: Float64Array;
   G: Float64Array;
@@ -49,6 +73,15 @@ export interface FdtdLine {
   tmp: Float64Array;
   /** Energy lost in R and G so far [J]. */
   lostJ: number;
+  /** The kernel chosen at compile for this segment (fdtdKernelFor, or fdtdStepVarying). */
+  step: FdtdKernel;
+  /**
+   * A line whose parameters vary (compile/fdtdProfile.ts): lumped L dz, R dz per cell (N x n x n)
+   * and C, G per node ((N + 1) x n x n) for the ledger.
+   */
+  lumped?: { Lc: Float64Array; Rc: Float64Array; Cn: Float64Array; Gn: Float64Array };
+  /** A varying line's node positions from the from end [m] (N + 1); a uniform one has k dzM. */
+  zNodeM?: Float64Array;
 }
 
 function mat(a: Float64Array, n: number): Matrix {
@@ -61,6 +94,14 @@ function flat(m: Matrix): Float64Array {
   const n = m.rows;
   const out = new Float64Array(n * n);
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) out[i * n + j] = m.get(i, j);
+  return out;
+}
+
+/** The matrix for both ends: a then a again. */
+function twice(a: Float64Array): Float64Array {
+  const out = new Float64Array(2 * a.length);
+  out.set(a);
+  out.set(a, a.length);
   return out;
 }
 
@@ -82,8 +123,8 @@ export function createFdtdLine(l: ResolvedLine, cells: number, dtS: number, slot
     line: l.index, n, cells, dzM: dz,
     Av: flat(cpi.mmul(cm)), Bv: flat(cpi.mul(1 / dz)),
     Ai: flat(lpi.mmul(lm)), Bi: flat(lpi.mul(1 / dz)),
-    g: flat(C.clone().mul(dz / dtS).add(G.clone().mul(dz / 2))),
-    gm: flat(C.clone().mul(dz / dtS).sub(G.clone().mul(dz / 2))),
+    g: twice(flat(C.clone().mul(dz / dtS).add(G.clone().mul(dz / 2)))),
+    gm: twice(flat(C.clone().mul(dz / dtS).sub(G.clone().mul(dz / 2)))),
     V: new Float64Array((cells + 1) * n),
     I: new Float64Array(cells * n),
     iEnd: new Float64Array(2 * n),
@@ -93,5 +134,6 @@ export function createFdtdLine(l: ResolvedLine, cells: number, dtS: number, slot
     R: l.R, L: l.L, G: l.G, C: l.C,
     tmp: new Float64Array(n),
     lostJ: 0,
+    step: fdtdKernelFor(n),
   };
 }
