@@ -31,6 +31,12 @@ export interface DielectricInput {
 export interface DielectricModel {
   /** eps_r at f [Hz] as {re: eps', im: eps''} with eps_r = eps' - j eps''. */
   at(fHz: number): Complex;
+  /**
+   * eps_r(s) at complex frequency s = sigma + j omega [1/s] as the complex value itself (at
+   * s = j omega: {re: eps', im: -eps''}); absent where the model has no analytic continuation
+   * (a constant nonzero loss tangent is not the boundary value of a function analytic in Re s > 0).
+   */
+  atS?(s: Complex): Complex;
   /** eps' at very high frequency (used for the lossless, high-frequency matrices) [-]. */
   highFrequency: number;
   /** True when eps' depends on frequency. */
@@ -50,6 +56,7 @@ export interface DielectricModel {
 export function constantDielectric(relPermittivity: number, lossTangent = 0): DielectricModel {
   return {
     at: (fHz) => ({ re: relPermittivity, im: fHz === 0 ? 0 : relPermittivity * lossTangent }),
+    ...(lossTangent > 0 ? {} : { atS: () => ({ re: relPermittivity, im: 0 }) }),
     highFrequency: relPermittivity,
     dispersive: false,
     lossy: lossTangent > 0,
@@ -84,6 +91,11 @@ export function djordjevicSarkarDielectric(relPermittivity: number, lossTangent:
     at: (fHz) => {
       const s = shape(2 * Math.PI * fHz);
       return { re: epsInf + d * s.re, im: -d * s.im + 0 };
+    },
+    // eps_inf + d ln((w2 + s) / (w1 + s)) / ln(w2 / w1): analytic for Re s > -w1.
+    atS: (s) => {
+      const l = clog(cdiv({ re: w2 + s.re, im: s.im }, { re: w1 + s.re, im: s.im }));
+      return { re: epsInf + (d * l.re) / lnr, im: (d * l.im) / lnr };
     },
     highFrequency: epsInf,
     dispersive: d !== 0,

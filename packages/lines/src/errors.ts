@@ -19,7 +19,8 @@ export type SectionErrorCode =
   | 'SECTION_DUPLICATE_NAME'
   | 'SECTION_REFERENCE'
   | 'SECTION_UNSUPPORTED'
-  | 'SECTION_FREQUENCY';
+  | 'SECTION_FREQUENCY'
+  | 'SECTION_NOT_CONTINUABLE';
 
 /** A path inside the section object, e.g. ['wires', 1, 'radius']. */
 export type SectionPath = (string | number)[];

@@ -26,9 +26,9 @@ export type {
 export { C0, MU0, EPS0, ETA0, COPPER_CONDUCTIVITY, ALUMINIUM_CONDUCTIVITY } from './constants.ts';
 export type { Complex } from './complex.ts';
 export { besselJ0, besselJ1, besselJ0Scaled, besselJ1Scaled, besselJ0OverJ1 } from './bessel.ts';
-export { skinDepth, roundWireInternalImpedance, roundWireDcInternalInductance, slabImpedance } from './skin.ts';
+export { skinDepth, roundWireInternalImpedance, roundWireInternalImpedanceS, roundWireDcInternalInductance, slabImpedance, slabImpedanceS } from './skin.ts';
 export type { SlabImpedance } from './skin.ts';
-export { carsonEarthImpedance, complexDepthEarthImpedance } from './earth.ts';
+export { carsonEarthImpedance, carsonEarthImpedanceS, complexDepthEarthImpedance, complexDepthEarthImpedanceS } from './earth.ts';
 export type { EarthParams } from './earth.ts';
 export { coax, twoWire, wireOverGround, imageMethodWires, invertSymmetric } from './closedForms.ts';
 export type { TwoConductorLine, ImageWire, ImageMethodResult } from './closedForms.ts';

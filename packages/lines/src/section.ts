@@ -2,15 +2,15 @@
  * computeSection: from a validated cross-section to per-unit-length matrices over frequency.
  */
 import type { Complex } from './complex.ts';
-import { cadd, cscale, csub } from './complex.ts';
+import { cadd, cdiv, cmul, cscale, csub } from './complex.ts';
 import { sectionError } from './errors.ts';
 import { resolveSection } from './validate.ts';
 import type { ResolvedCoax, ResolvedMicrostrip, ResolvedStripline, ResolvedWires, ResolvedMaterial } from './validate.ts';
 import type { EarthInput } from './input.ts';
 import { dielectricModel } from './dielectric.ts';
 import type { DielectricModel } from './dielectric.ts';
-import { roundWireDcInternalInductance, roundWireInternalImpedance, slabImpedance } from './skin.ts';
-import { carsonEarthImpedance, complexDepthEarthImpedance } from './earth.ts';
+import { roundWireDcInternalInductance, roundWireInternalImpedance, roundWireInternalImpedanceS, slabImpedance, slabImpedanceS } from './skin.ts';
+import { carsonEarthImpedance, carsonEarthImpedanceS, complexDepthEarthImpedance, complexDepthEarthImpedanceS } from './earth.ts';
 import { imageMethodWires } from './closedForms.ts';
 import { solveInsulatedBundle } from './bundleSolver.ts';
 import type { BundleWire } from './bundleSolver.ts';
@@ -81,7 +81,40 @@ interface Model {
   rl(fHz: number): { R: Float64Array; L: Float64Array };
   /** G and C at f >= 0. */
   gc(fHz: number): { G: Float64Array; C: Float64Array };
+  /** Z(s) and Y(s) at complex s (the analytic continuation); throws SECTION_NOT_CONTINUABLE. */
+  zyS(s: Complex): ZY;
   describe: string;
+}
+
+/** The error of a section model that has no continuation to complex frequency. */
+function notContinuable(path: (string | number)[], what: string, value: unknown): never {
+  throw sectionError('SECTION_NOT_CONTINUABLE', path, `has no continuation to complex frequency s = sigma + j omega (${what})`, value);
+}
+
+/** eps_r(s) of a dielectric, or the error naming it. */
+function epsAtS(d: DielectricModel, s: Complex, path: (string | number)[], input: unknown): Complex {
+  if (!d.atS) notContinuable(path, "a constant loss tangent is not causal; give the dielectric model 'djordjevic-sarkar'", input);
+  return d.atS(s);
+}
+
+/** Fills Z = s L + z into a ZY, n x n. */
+function zyFrom(n: number, s: Complex, L: Float64Array, zAdd: (idx: number) => Complex, C: Float64Array, cAdd: (idx: number) => Complex): ZY {
+  const Zre = new Float64Array(n * n);
+  const Zim = new Float64Array(n * n);
+  const Yre = new Float64Array(n * n);
+  const Yim = new Float64Array(n * n);
+  for (let k = 0; k < n * n; k++) {
+    const z = zAdd(k);
+    Zre[k] = s.re * L[k] + z.re;
+    Zim[k] = s.im * L[k] + z.im;
+    // Y = s (C + dC), dC complex
+    const c = cAdd(k);
+    const cr = C[k] + c.re;
+    const ci = c.im;
+    Yre[k] = s.re * cr - s.im * ci;
+    Yim[k] = s.re * ci + s.im * cr;
+  }
+  return { Zre, Zim, Yre, Yim };
 }
 
 /** Adds a complex impedance z [ohm/m] at frequency f into R and L at (i, j). */
@@ -122,6 +155,8 @@ function wiresModel(s: ResolvedWires): Model {
   let Chf: Float64Array;
   const sens: Float64Array[] = [];
   const dielectrics: DielectricModel[] = [];
+  /** A wire of each dielectric group (for the error that names a model without continuation). */
+  const dielectricWire: number[] = [];
   let numericHarmonics = 0;
   let numericChange = NaN;
   if (s.solverUsed === 'thin-wire') {
@@ -183,6 +218,7 @@ function wiresModel(s: ResolvedWires): Model {
       const step = (up[members[0]] as number) - (dn[members[0]] as number);
       sens.push(cu.map((v, k) => (v - cd[k]) / step));
       dielectrics.push(d);
+      dielectricWire.push(members[0]);
     }
   }
   const earth = typeof s.ground === 'object' ? s.ground : undefined;
@@ -235,7 +271,43 @@ function wiresModel(s: ResolvedWires): Model {
   };
   const gLabel = s.ground === 'none' ? `free space, reference '${s.wires[ref].name}'` : s.ground === 'perfect' ? 'perfect ground' : earthLabel(s.ground);
   const describe = `${n} wire conductor(s) [${conductors.join(', ')}] over ${gLabel}; ${s.solverUsed === 'thin-wire' ? 'thin-wire image method' : `multipole solver (${numericHarmonics} harmonics${Number.isNaN(numericChange) ? '' : `, last refinement changed C, L by ${numericChange.toExponential(1)}`})`}`;
-  return { conductors, n, Lhf, Chf, rl, gc, describe };
+  const internalS = (w: ResolvedWires['wires'][number], sc: Complex): Complex => {
+    const m = w.resolvedMaterial;
+    if (isPerfect(m)) return { re: 0, im: 0 };
+    return cscale(roundWireInternalImpedanceS(w.radius, sc, m.conductivity, m.relPermeability), 1 / (w.bundle?.count ?? 1));
+  };
+  const zyS = (sc: Complex): ZY => {
+    const zRef = ref >= 0 ? internalS(s.wires[ref], sc) : { re: 0, im: 0 };
+    const zi = signal.map((i) => internalS(s.wires[i], sc));
+    const dz = new Array<Complex>(n * n).fill({ re: 0, im: 0 });
+    if (earth) {
+      const e = { resistivityOhmM: earth.resistivityOhmM, relPermittivity: earth.relPermittivity };
+      for (let a = 0; a < n; a++) {
+        for (let b = a; b < n; b++) {
+          const wa = s.wires[signal[a]];
+          const wb = s.wires[signal[b]];
+          const z = earth.model === 'complex-depth' ? complexDepthEarthImpedanceS(wa.y, wb.y, wa.x - wb.x, sc, e) : carsonEarthImpedanceS(wa.y, wb.y, wa.x - wb.x, sc, e);
+          dz[a * n + b] = z;
+          dz[b * n + a] = z;
+        }
+      }
+    }
+    const eps = dielectrics.map((d, w) => {
+      const i = dielectricWire[w];
+      return cadd(epsAtS(d, sc, ['wires', i, 'insulation'], s.wires[i].insulation), { re: -d.highFrequency, im: 0 });
+    });
+    return zyFrom(n, sc, Lhf, (k) => {
+      const a = Math.floor(k / n);
+      const b = k % n;
+      return cadd(cadd(zRef, a === b ? zi[a] : { re: 0, im: 0 }), dz[k]);
+    }, Chf, (k) => {
+      let re = 0;
+      let im = 0;
+      eps.forEach((e, w) => { re += e.re * sens[w][k]; im += e.im * sens[w][k]; });
+      return { re, im };
+    });
+  };
+  return { conductors, n, Lhf, Chf, rl, gc, zyS, describe };
 }
 
 function coaxModel(s: ResolvedCoax): Model {
@@ -258,7 +330,20 @@ function coaxModel(s: ResolvedCoax): Model {
     const w = 2 * Math.PI * rm;
     return { surf: cscale(z.surface, 1 / w), transfer: cscale(z.transfer, 1 / w), lSurfDc: (MU0 * m.relPermeability * t) / 3 / w, lTransDc: (-MU0 * m.relPermeability * t) / 6 / w };
   };
+  // Continuations to complex s: the same loop impedances with Z(s) of the conductors.
+  const innerZS = (sc: Complex): Complex => (isPerfect(s.inner) ? { re: 0, im: 0 } : roundWireInternalImpedanceS(a, sc, s.inner.conductivity, s.inner.relPermeability));
+  const shieldZS = (sc: Complex): { surf: Complex; transfer: Complex } => {
+    if (shieldPerfect) return { surf: { re: 0, im: 0 }, transfer: { re: 0, im: 0 } };
+    const z = slabImpedanceS(t, sc, s.shieldMaterial.conductivity, s.shieldMaterial.relPermeability);
+    const w = 2 * Math.PI * rm;
+    return { surf: cscale(z.surface, 1 / w), transfer: cscale(z.transfer, 1 / w) };
+  };
   if (!s.overGround) {
+    const zyS = (sc: Complex): ZY => {
+      const e = epsAtS(diel, sc, ['dielectric'], s.dielectric);
+      const z = cadd(innerZS(sc), shieldZS(sc).surf);
+      return zyFrom(1, sc, new Float64Array([Lc]), () => z, new Float64Array([0]), () => cscale(e, cUnit));
+    };
     const rl = (fHz: number): { R: Float64Array; L: Float64Array } => {
       const zi = innerZ(fHz);
       const zs = shieldZ(fHz);
@@ -272,7 +357,7 @@ function coaxModel(s: ResolvedCoax): Model {
       const e = diel.at(fHz);
       return { G: new Float64Array([2 * Math.PI * fHz * cUnit * e.im + 0]), C: new Float64Array([cUnit * e.re]) };
     };
-    return { conductors: ['inner'], n: 1, Lhf: new Float64Array([Lc]), Chf: new Float64Array([cUnit * diel.highFrequency]), rl, gc, describe: `coax a=${a} m, b=${b} m, er=${s.dielectric.relPermittivity}; conductor 'inner', reference the shield` };
+    return { conductors: ['inner'], n: 1, Lhf: new Float64Array([Lc]), Chf: new Float64Array([cUnit * diel.highFrequency]), rl, gc, zyS, describe: `coax a=${a} m, b=${b} m, er=${s.dielectric.relPermittivity}; conductor 'inner', reference the shield` };
   }
   // Second level: the shield is a conductor over ground.
   const og = s.overGround;
@@ -334,10 +419,31 @@ function coaxModel(s: ResolvedCoax): Model {
     const L = new Float64Array([z11.im / omega, z12.im / omega, z12.im / omega, zsh.im / omega]);
     return { R, L };
   };
+  const zyS = (sc: Complex): ZY => {
+    // Z: zc = zi + zs + s Lc, zsh = zs + s Ls + earth, zt; Z = [[zc + zsh - 2 zt, zsh - zt], [zsh - zt, zsh]].
+    const zs = shieldZS(sc);
+    const zc = cadd(innerZS(sc), zs.surf);
+    let zsh = zs.surf;
+    if (earth) {
+      const e = { resistivityOhmM: earth.resistivityOhmM, relPermittivity: earth.relPermittivity };
+      zsh = cadd(zsh, earth.model === 'complex-depth' ? complexDepthEarthImpedanceS(h, h, 0, sc, e) : carsonEarthImpedanceS(h, h, 0, sc, e));
+    }
+    const zt = zs.transfer;
+    const zList = [csub(cadd(zc, zsh), cscale(zt, 2)), csub(zsh, zt), csub(zsh, zt), zsh];
+    // Y = s [[cc, -cc], [-cc, cc + cs]], cc = cUnit eps(s), cs = 1 / (air + k / eps_jacket(s)).
+    const cc = cscale(epsAtS(diel, sc, ['dielectric'], s.dielectric), cUnit);
+    let ps: Complex = { re: Math.acosh(h / Rj) / (2 * Math.PI * EPS0), im: 0 };
+    if (jd) ps = cadd(ps, cdiv({ re: Math.log(Rj / Rs) / (2 * Math.PI * EPS0), im: 0 }, epsAtS(jd, sc, ['overGround', 'jacket'], og.jacket)));
+    const cs = cdiv({ re: 1, im: 0 }, ps);
+    const tot = cadd(cc, cs);
+    const neg = cscale(cc, -1);
+    const cList = [cc, neg, neg, tot];
+    return zyFrom(2, sc, new Float64Array([Lc + Ls, Ls, Ls, Ls]), (k) => zList[k], new Float64Array(4), (k) => cList[k]);
+  };
   const Lhf = new Float64Array([Lc + Ls, Ls, Ls, Ls]);
   const Chf = ymat(0, true).C;
   const gLabel = og.ground === 'perfect' ? 'perfect ground' : earthLabel(og.ground);
-  return { conductors: ['inner', 'shield'], n: 2, Lhf, Chf, rl, gc: (f) => ymat(f, false), describe: `coax a=${a} m, b=${b} m with its shield over ${gLabel} at ${h} m; conductors 'inner', 'shield'` };
+  return { conductors: ['inner', 'shield'], n: 2, Lhf, Chf, rl, gc: (f) => ymat(f, false), zyS, describe: `coax a=${a} m, b=${b} m with its shield over ${gLabel} at ${h} m; conductors 'inner', 'shield'` };
 }
 
 function printedModel(s: ResolvedMicrostrip | ResolvedStripline): Model {
@@ -405,7 +511,22 @@ function printedModel(s: ResolvedMicrostrip | ResolvedStripline): Model {
     const G = r.C.map((v) => (omega * v * r.q * e.im) / e.re + 0);
     return { G, C: r.C.slice() };
   };
-  return { conductors, n, Lhf: hf.L, Chf: hf.C, rl, gc, describe };
+  const condZS = (sc: Complex): Complex => {
+    if (perfect) return { re: 0, im: 0 };
+    if (s.kind === 'microstrip') return cscale(slabImpedanceS(t, sc, m.conductivity, m.relPermeability).surface, 2 / W);
+    const zStrip = cscale(slabImpedanceS(t / 2, sc, m.conductivity, m.relPermeability).surface, 1 / (2 * W));
+    const zPlanes = cscale(slabImpedanceS(t, sc, m.conductivity, m.relPermeability).surface, 1 / (2 * W));
+    return cadd(zStrip, zPlanes);
+  };
+  const zyS = (sc: Complex): ZY => {
+    // The closed forms take a real permittivity; only a lossless, non-dispersive dielectric continues (Y = s C).
+    if (diel.lossy || diel.dispersive) {
+      notContinuable([s.kind === 'microstrip' ? 'substrate' : 'dielectric'], 'the quasi-static closed forms of printed lines take a real permittivity; a lossy or dispersive dielectric has no continuation here', s.kind === 'microstrip' ? s.substrate : s.dielectric);
+    }
+    const z = condZS(sc);
+    return zyFrom(n, sc, hf.L, (k) => (Math.floor(k / n) === k % n ? z : { re: 0, im: 0 }), hf.C, () => ({ re: 0, im: 0 }));
+  };
+  return { conductors, n, Lhf: hf.L, Chf: hf.C, rl, gc, zyS, describe };
 }
 
 /** max |a - b| over the matrix, relative to the largest diagonal entry of b. */
@@ -460,6 +581,12 @@ export function computeSection(input: unknown): LineSection {
       const r = at(fHz);
       const omega = 2 * Math.PI * fHz;
       return { Zre: r.R.slice(), Zim: r.L.map((v) => omega * v), Yre: r.G.slice(), Yim: r.C.map((v) => omega * v) };
+    },
+    zyAtLaplace(sigma: number, omegaRadS: number): ZY {
+      if (!(Number.isFinite(sigma) && sigma >= 0) || !(Number.isFinite(omegaRadS) && omegaRadS >= 0)) {
+        throw sectionError('SECTION_FREQUENCY', [], 'complex frequency needs finite sigma >= 0 and omega >= 0', { sigma, omegaRadS }, '1/s');
+      }
+      return model.zyS({ re: sigma, im: omegaRadS });
     },
     describe: model.describe,
   };
