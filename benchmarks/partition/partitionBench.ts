@@ -86,15 +86,28 @@ async function main(): Promise<void> {
     process.stderr.write(`partition bench: ${nJ} junctions, ${cond} conductor(s), ${steps} steps: generating\n`);
     const data = treeScenario(nJ, cond, steps);
     process.stderr.write('  one thread\n');
-    const serial = await runScenario(resolveScenarioData(data, { registry }), { registry });
+    const tResolve = performance.now();
+    const resolved = resolveScenarioData(data, { registry });
+    const resolveS = (performance.now() - tResolve) / 1000;
+    const serial = await runScenario(resolved, { registry });
     process.stderr.write('  two threads\n');
     const par = await runPartitioned({ data }, { registry, threads: 2, minBlockWorkS: 0 });
     // The partitioned result must equal the serial one bit for bit (checked on the ledgers' absence: compare node traces is
     // not possible without probes, so compare the run's peak table, empty here, and the final step count).
     if (par.nSteps !== serial.nSteps) throw new Error('step counts differ');
     const ratio = serial.timing.loop / par.timing.loop;
-    rows.push({ conductors: cond, junctions: nJ, steps, K: par.partition.K, threads: par.partition.used, serialS: serial.timing.loop, twoThreadS: par.timing.loop, speedup: ratio });
-    process.stderr.write(`  1 thread ${serial.timing.loop.toFixed(3)} s, 2 threads ${par.timing.loop.toFixed(3)} s, ratio ${ratio.toFixed(2)}, K = ${par.partition.K}\n`);
+    // Set-up: the one-thread run compiles once; the two-thread run compiles on this thread and
+    // again in each worker (in parallel), after copying the resolved scenario to them.
+    const serialSetupS = resolveS + serial.timing.compile;
+    const parSetupS = par.timing.compile + (par.timing.workerSetup ?? 0);
+    rows.push({
+      conductors: cond, junctions: nJ, steps, K: par.partition.K, threads: par.partition.used,
+      serialS: serial.timing.loop, twoThreadS: par.timing.loop, speedup: ratio,
+      worker0S: par.timing.worker0Compute ?? 0, worker1S: par.timing.worker1Compute ?? 0,
+      serialSetupS, parSetupS,
+    });
+    process.stderr.write(`  stepping: 1 thread ${serial.timing.loop.toFixed(3)} s, 2 threads ${par.timing.loop.toFixed(3)} s, ratio ${ratio.toFixed(2)}, K = ${par.partition.K}; workers computed ${(par.timing.worker0Compute ?? 0).toFixed(3)} s and ${(par.timing.worker1Compute ?? 0).toFixed(3)} s\n`);
+    process.stderr.write(`  set-up (resolve + compile): 1 thread ${serialSetupS.toFixed(2)} s, 2 threads ${parSetupS.toFixed(2)} s (main ${par.timing.compile.toFixed(2)} s + workers ${(par.timing.workerSetup ?? 0).toFixed(2)} s)\n`);
   }
   // Barrier cost: a tiny network stepped with meetings every step (K = 1 would need delay-1 lines; use the smallest tree).
   const small = treeScenario(64, 1, 20000);

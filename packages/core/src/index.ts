@@ -24,6 +24,7 @@ export {
 export type { ResolvedScenario, ResolvedLine, ResolvedJunction, ResolvedPart, ResolvedPort, ResolvedProbe, ResolvedTime } from './model.ts';
 export { decomposeLine, type ModalLine } from './line/modal.ts';
 export { compileScenario, type Plan, type DelayInfo, type CompileOptions } from './compile/compile.ts';
+export { widenRings } from './compile/rings.ts';
 export { runScenario, runPlan, deriveLines, summariseNetwork, type RunOptions, type RunResult, type TracePeak, type LineDerived, type NetworkSummary } from './run/run.ts';
 export {
   resultsDocument, encodeResults, decodeResults, readResults, writeResults, writeFileAtomic, float64ToBytes, bytesToFloat64,

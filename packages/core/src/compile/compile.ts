@@ -177,8 +177,8 @@ export interface CompileOptions {
   /** Collects warnings; default: into plan.warnings only. */
   onWarning?: (message: string) => void;
   /**
-   * Extra ring-buffer history in steps (default 0): a partitioned run replays probes one block
-   * behind the workers and needs the waves of two more blocks.
+   * Extra ring-buffer history in steps for every line (default 0), for a caller that reads waves
+   * behind the stepping. Partitioned runs widen the rings per line after compile (rings.ts).
    */
   ringSlackSteps?: number;
 }

@@ -9,6 +9,7 @@
 import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { compileScenario, type Plan } from '../compile/compile.ts';
+import { widenRings } from '../compile/rings.ts';
 import { SkeinError } from '../errors.ts';
 import type { NodeHandle, PartHandle, PointHandle, PortHandle, ProbeSetupContext, StructuredOutput, TraceHandle } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
@@ -16,7 +17,7 @@ import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts
 import type { ResolvedScenario } from '../model.ts';
 import { runPlan, type RunOptions, type RunResult, type StepDriver } from '../run/run.ts';
 import { partitionNetwork, type Partition } from './partition.ts';
-import { allocateShared, CONTROL_WORDS, DONE, ERROR, GO, historyRow } from './shared.ts';
+import { allocateShared, CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow } from './shared.ts';
 import type { WorkerInit } from './worker.ts';
 
 /** Where the workers get the scenario from (they resolve and compile it themselves). */
@@ -34,6 +35,8 @@ export interface PartitionedOptions extends Omit<RunOptions, 'driver'> {
   minBlockWorkS?: number;
   /** Estimated cost of one line-end port update [s] (default 10 ns), for that decision. */
   portCostS?: number;
+  /** How long a worker spins at a meeting before it sleeps [s] (default 2 ms). */
+  spinWaitS?: number;
   /** History memory cap [bytes] (default 256 MiB): K is lowered to fit. */
   maxHistoryBytes?: number;
 }
@@ -100,13 +103,19 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
     return Object.assign(r, { partition: decision });
   }
   const K = partition.K;
-  // The replay one block behind the workers reads waves from the rings only for probes that ask
-  // for line ends, line points or the ledger; only then do the rings need two blocks of slack
-  // (which costs memory and, beyond the cache, time) and the plan is compiled again with it.
-  const slack = (await probesReadWaves(firstPlan, registry)) ? 2 * K : 0;
-  const plan = slack > 0 ? await compileScenario(resolve(), { registry, ringSlackSteps: slack }) : firstPlan;
+  // Ring history (rings.ts): a line crossing threads needs K more steps (its writer may be up to
+  // K - 1 steps ahead of its reader); the replay one block behind the workers reads waves from
+  // the rings only for probes that ask for line ends, line points or the ledger, and only then
+  // do all rings need two blocks more (which costs memory and, beyond the cache, time).
+  const readsWaves = await probesReadWaves(firstPlan, registry);
+  const ringExtra = new Int32Array(scenario.lines.length);
+  scenario.lines.forEach((l, i) => {
+    ringExtra[i] = readsWaves ? 2 * K : partition.owner[l.from] !== partition.owner[l.to] ? K : 0;
+  });
+  const plan = firstPlan;
+  widenRings(plan, ringExtra);
   const compileS = (performance.now() - t0) / 1000;
-  const driver = partitionedDriver(plan, partition, source, scenario, registry, slack);
+  const driver = partitionedDriver(plan, partition, source, scenario, registry, ringExtra, opts.spinWaitS ?? 2e-3);
   const r = await runPlan(plan, { ...opts, driver }, compileS);
   r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
   return Object.assign(r, { partition: decision });
@@ -143,7 +152,7 @@ async function probesReadWaves(plan: Plan, registry: PluginRegistry): Promise<bo
   return reads;
 }
 
-function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, slack: number): StepDriver {
+function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, ringExtra: Int32Array, spinWaitS: number): StepDriver {
   // The workers get the resolved scenario (a structured copy costs a fraction of resolving it
   // again) unless it holds functions: sections of lines evaluate R(f), L(f), G(f), C(f) by
   // closures, so such scenarios are resolved again from their source in each worker.
@@ -172,7 +181,7 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
       const tSetup = performance.now();
       for (let t = 0; t < T; t++) {
         const init: WorkerInit = {
-          entry: WORKER_ENTRY, self: t, threads: T, K, ringSlackSteps: slack, modules: [...registry.modules],
+          entry: WORKER_ENTRY, self: t, threads: T, K, ringExtra, spinWaitS, modules: [...registry.modules],
           source: { file: source.file }, resolved, owner: partition.owner, shared,
         };
         const fromSource = (): Worker => new Worker(BOOTSTRAP, { workerData: { ...init, resolved: undefined, source: { text: source.text, data: source.data, file: source.file } } });
@@ -191,12 +200,13 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
         let onReady: () => void = () => {};
         ready.push(new Promise<void>((res) => { onReady = res; }));
         finished.push(new Promise<void>((res) => {
-          w.on('message', (m: { type: string; outputs?: Record<string, StructuredOutput>; warnings?: string[]; message?: string; code?: string; details?: Record<string, unknown>; computeS?: number; waitS?: number }) => {
+          w.on('message', (m: { type: string; outputs?: Record<string, StructuredOutput>; warnings?: string[]; message?: string; code?: string; details?: Record<string, unknown>; computeS?: number; waitS?: number; startS?: number }) => {
             if (m.type === 'ready') onReady();
             else if (m.type === 'finished') {
               // Per-worker stepping and waiting time, for the efficiency figures.
               io.timing[`worker${t}Compute`] = m.computeS ?? 0;
               io.timing[`worker${t}Wait`] = m.waitS ?? 0;
+              io.timing[`worker${t}Start`] = m.startS ?? 0;
               Object.assign(loadOutputs, m.outputs);
               loadWarnings.push(...(m.warnings ?? []));
               res();
@@ -245,12 +255,12 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
             io.observe(n, false);
           }
         };
+        Atomics.store(control, GO, 1);
+        Atomics.notify(control, GO);
         for (let b = 0; b < nBlocks; b++) {
-          Atomics.store(control, GO, b + 1);
-          Atomics.notify(control, GO);
-          if (b > 0) replay(b - 1);
           const target = T * (b + 1);
           const t1 = performance.now();
+          // This thread sleeps (it is not on the workers' path: they release each other).
           while (Atomics.load(control, DONE) < target) {
             if (Atomics.load(control, ERROR) !== 0 || errors.length > 0) {
               await Promise.all(finished);
@@ -259,8 +269,10 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
             Atomics.wait(control, DONE, Atomics.load(control, DONE), 50);
           }
           io.timing.junctions += performance.now() - t1;
+          replay(b);
+          Atomics.store(control, REPLAYED, b + 1);
+          Atomics.notify(control, REPLAYED);
         }
-        replay(nBlocks - 1);
         await Promise.all(finished);
         if (errors.length > 0) fail();
         // The workers have posted their results and end by themselves; their teardown (freeing
@@ -268,7 +280,7 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
         for (const w of workers) void w.terminate();
       } catch (e) {
         Atomics.store(control, ERROR, Atomics.load(control, ERROR) || 2);
-        Atomics.notify(control, GO);
+        for (const word of [GO, DONE, REPLAYED]) Atomics.notify(control, word);
         await Promise.all(workers.map((w) => w.terminate()));
         throw e;
       }

@@ -5,6 +5,7 @@
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { compileScenario } from '../compile/compile.ts';
+import { widenRings } from '../compile/rings.ts';
 import { SkeinError } from '../errors.ts';
 import { PluginRegistry, loadPluginModules } from '../plugins/registry.ts';
 import type { StructuredOutput } from '../plugins/api.ts';
@@ -12,7 +13,7 @@ import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts
 import type { ResolvedScenario } from '../model.ts';
 import { acceptNonlinear, phaseNonlinear } from '../run/newton.ts';
 import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSwitches } from '../run/step.ts';
-import { CONTROL_WORDS, DONE, ERROR, GO, historyRow, type SharedBuffers } from './shared.ts';
+import { CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow, type SharedBuffers } from './shared.ts';
 
 /** What the main thread sends. */
 export interface WorkerInit {
@@ -20,13 +21,43 @@ export interface WorkerInit {
   self: number;
   threads: number;
   K: number;
-  ringSlackSteps: number;
+  /** Extra ring history per line (rings.ts), the same as the main thread's. */
+  ringExtra: Int32Array;
+  /** How long a worker spins before it sleeps at a meeting [s]. */
+  spinWaitS: number;
   modules: string[];
   source: { text?: string; data?: unknown; file?: string };
   /** The main thread's resolved scenario without its `locate` (see runPartitioned.ts), or undefined. */
   resolved?: Omit<ResolvedScenario, 'locate'> & { locate?: undefined };
   owner: Int32Array;
   shared: SharedBuffers;
+}
+
+/**
+ * Waits until every worker has finished the blocks before this one (DONE >= done) and the main
+ * thread has replayed the block whose history rows the next block overwrites (REPLAYED >=
+ * replayed). It spins first: a thread that sleeps is woken only when the scheduler next gets to
+ * it, which on a busy machine is a whole time slice, while the wait at a meeting is usually the
+ * other worker's last fraction of a millisecond.
+ * @returns false when a worker failed or the run was stopped.
+ */
+function awaitBlock(control: Int32Array, done: number, replayed: number, spinMs: number): boolean {
+  const ready = (): boolean => Atomics.load(control, DONE) >= done && Atomics.load(control, REPLAYED) >= replayed;
+  if (ready()) return true;
+  const until = performance.now() + spinMs;
+  let spins = 0;
+  while (!ready()) {
+    if (Atomics.load(control, ERROR) !== 0) return false;
+    if ((++spins & 255) === 0 && performance.now() > until) {
+      const d = Atomics.load(control, DONE);
+      if (d < done) Atomics.wait(control, DONE, d, 100);
+      else {
+        const r = Atomics.load(control, REPLAYED);
+        if (r < replayed) Atomics.wait(control, REPLAYED, r, 100);
+      }
+    }
+  }
+  return true;
 }
 
 async function main(init: WorkerInit): Promise<void> {
@@ -40,7 +71,8 @@ async function main(init: WorkerInit): Promise<void> {
       : init.source.text !== undefined
       ? resolveScenarioText(init.source.text, { registry, file: init.source.file })
       : resolveScenarioData(init.source.data, { registry, file: init.source.file });
-    const plan = await compileScenario(scenario, { registry, ringSlackSteps: init.ringSlackSteps });
+    const plan = await compileScenario(scenario, { registry });
+    widenRings(plan, init.ringExtra);
     const warnStart = plan.warnings.length;
     const wave = new Float64Array(init.shared.wave);
     if (wave.length !== plan.wave.length) throw new SkeinError('E_BUG', `bug: worker plan has ${plan.wave.length} wave slots, main ${wave.length}`);
@@ -82,18 +114,24 @@ async function main(init: WorkerInit): Promise<void> {
     const partI = new Float64Array(nParts);
     const partU = new Float64Array(nParts);
     const K = init.K;
+    const spinMs = init.spinWaitS * 1000;
     const nBlocks = Math.floor(plan.nSteps / K) + 1;
     parentPort!.postMessage({ type: 'ready' });
     let computeMs = 0;
     let waitMs = 0;
+    let startMs = 0;
     for (let b = 0; b < nBlocks; b++) {
       const tw = performance.now();
-      while (Atomics.load(control, GO) <= b) {
-        if (Atomics.load(control, ERROR) !== 0) return;
-        Atomics.wait(control, GO, b, 1000);
-      }
+      if (b === 0) {
+        while (Atomics.load(control, GO) === 0) {
+          if (Atomics.load(control, ERROR) !== 0) return;
+          Atomics.wait(control, GO, 0, 1000);
+        }
+      } else if (!awaitBlock(control, init.threads * b, b - 1, spinMs)) return;
       const tc = performance.now();
-      waitMs += tc - tw;
+      // The wait before the first block is the other workers' start-up, not a meeting.
+      if (b === 0) startMs = tc - tw;
+      else waitMs += tc - tw;
       const end = Math.min((b + 1) * K, plan.nSteps + 1);
       for (let n = b * K; n < end; n++) {
         const tS = n * plan.dtS;
@@ -133,12 +171,13 @@ async function main(init: WorkerInit): Promise<void> {
         warnings.push(`plugin ${p.part.type}, hook finish: ${(e as Error).message}`);
       }
     }
-    parentPort!.postMessage({ type: 'finished', outputs, warnings, computeS: computeMs / 1000, waitS: waitMs / 1000 });
+    parentPort!.postMessage({ type: 'finished', outputs, warnings, computeS: computeMs / 1000, waitS: waitMs / 1000, startS: startMs / 1000, blocks: nBlocks });
   } catch (e) {
     const err = e as SkeinError;
     parentPort!.postMessage({ type: 'error', message: err.message, code: err.code, details: err.details, blocksDone });
     Atomics.store(control, ERROR, 1);
     Atomics.notify(control, DONE);
+    Atomics.notify(control, REPLAYED);
   }
 }
 
