@@ -53,6 +53,7 @@ const CASES: Case[] = [
   { name: 'an FDTD segment too fine for the time step', edit: (s) => s.replace('    velocity: 2e8m/s', '    velocity: 2e8m/s\n    resistance: 0.1ohm/m\n    fdtd: { cells: 1000 }').replace('time: { end: 100ns }', 'time: { end: 100ns, step: 1ns }'), code: 'E_STEP_TOO_LONG', path: 'time.step', line: 2 },
   { name: 'a probe on a node that does not exist', edit: (s) => s.replace('node: B.b', 'node: B.zz'), code: 'E_PROBE_PLACE', path: 'probes.vb.node' },
   { name: 'a time step longer than the line delay', edit: (s) => s.replace('time: { end: 100ns }', 'time: { end: 100ns, step: 80ns }'), code: 'E_STEP_TOO_LONG', path: 'time.step' },
+  { name: 'a modal frequency on a line that is not a multiconductor frequency-dependent one', edit: (s) => s.replace('    velocity: 2e8m/s', '    velocity: 2e8m/s\n    modalFrequency: 1MHz'), code: 'E_FD_MODAL_FREQUENCY', path: 'lines.feeder.modalFrequency', line: 10 },
   { name: 'the reserved node name', edit: (s) => s.replace('nodes: { b: [feeder] }', 'nodes: { ref: [feeder] }'), code: 'E_RESERVED', path: 'junctions.B.nodes.ref', line: 16 },
 ];
 

@@ -32,6 +32,19 @@ describe('skein command', () => {
     expect(html).toContain('IEC 62305');
   });
 
+  it('checks a frequency-dependent multiconductor line and reports its modal transformation', async () => {
+    const c = capture();
+    expect(await main(['check', join(EXAMPLES, 'overheadSpanFd.yaml')], c.io)).toBe(0);
+    const text = c.out.join('\n');
+    expect(text).toMatch(/frequency-dependent: fitted delays/);
+    // The neglected coupling at 100 kHz over 41.7 kHz .. 25 MHz: 0.93 % measured (below the 1 % warning).
+    const m = /constant modal transformation at 100 kHz: neglected coupling up to ([0-9.]+) %/.exec(text);
+    expect(m).not.toBeNull();
+    expect(Number(m![1])).toBeGreaterThan(0.5);
+    expect(Number(m![1])).toBeLessThan(1);
+    expect(text).not.toMatch(/Warnings:/);
+  }, 120_000);
+
   it('checks, inspects and exports', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'skein-cli-'));
     const scenario = join(dir, 'harness.yaml');

@@ -131,3 +131,24 @@ describe('service entrance example', () => {
     expect(r.warnings.some((w) => w.startsWith('protector: rating exceeded:'))).toBe(true);
   });
 });
+
+describe('overhead span example (frequency-dependent multiconductor line)', () => {
+  it('keeps the far end at rest until the fastest wave can arrive, and closes the ledger', async () => {
+    const r = await runText(example('overheadSpanFd.yaml'), 'overheadSpanFd.yaml');
+    // Time of flight: no mode of wires in air over earth travels faster than light (common
+    // practice), so nothing reaches the east end 3 km away before 3 km / c = 10.007 us.
+    const tArrive = 3000 / 299792458;
+    const t = r.times();
+    for (const trace of ['eastA.v', 'eastB.v', 'eastC.v']) {
+      const v = r.series(trace);
+      for (let i = 0; i < t.length && t[i] < tArrive - 0.1e-6; i++) expect(Math.abs(v[i]), `${trace} at ${t[i]} s`).toBeLessThan(1e-12);
+    }
+    // The surge does arrive, on the struck wire and, induced, on the others.
+    expect(r.peaks.find((p) => p.trace === 'eastA.v')!.max).toBeGreaterThan(1);
+    expect(Math.abs(r.at('eastB.v', 14e-6))).toBeGreaterThan(0.05);
+    // The ledger closes to rounding (resistive terminations, the line's intake counted as lost).
+    const l = r.ledger!;
+    expect(Math.abs(l.residualJ) / l.deliveredJ).toBeLessThan(1e-9);
+    expect(l.lostJ).toBeGreaterThan(0);
+  }, 120_000);
+});

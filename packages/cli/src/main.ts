@@ -7,7 +7,7 @@ import { fileURLToPath, pathToFileURL } from 'node:url';
 import { parseArgs } from 'node:util';
 import {
   compileScenario, InputError, runPartitioned, loadPluginModules, PluginRegistry, readResults, resolveScenarioText, runPlan, scenarioSchema,
-  SkeinError, writeFileAtomic, writeResults, encodeResults, type ResolvedScenario,
+  SkeinError, writeFileAtomic, writeResults, encodeResults, type Plan, type ResolvedScenario,
 } from '@skein/core';
 import { createProgress } from './progress.ts';
 import { STANDARD_PLUGINS, STANDARD_PLUGINS_BASE } from './standardPlugins.ts';
@@ -76,6 +76,19 @@ const defaultIo: Io = {
   out: (s) => process.stdout.write(s.endsWith('\n') ? s : `${s}\n`),
   err: (s) => process.stderr.write(s.endsWith('\n') ? s : `${s}\n`),
 };
+
+/** A frequency-dependent line's fitted delays and its transformation's neglected coupling, for `skein check --json`. */
+function fdCheckInfo(plan: Plan, line: number): Record<string, unknown> {
+  const fd = plan.fdLines.find((x) => x.line === line);
+  if (!fd) return {};
+  return {
+    frequencyDependent: {
+      fittedDelaysS: fd.model.modes.map((m) => m.tauS),
+      modalFrequencyHz: fd.n > 1 ? fd.model.transform.fHz : undefined,
+      neglectedCoupling: fd.runCoupling,
+    },
+  };
+}
 
 /**
  * Builds the plugin registry: the standard set, then the configuration's plugins, then --plugin flags.
@@ -236,7 +249,7 @@ export async function main(argv: string[], io: Io = defaultIo): Promise<number> 
         if (flags.json) {
           io.out(JSON.stringify({
             title: sc.title, digest: sc.digest, dtS: plan.dtS, steps: plan.nSteps, delays: plan.delays, warnings: plan.warnings,
-            lines: sc.lines.map((l, i) => ({ id: l.id, conductors: l.conductors, velocitiesMps: Array.from(plan.modal[i].velocities), zcOhm: Array.from(plan.modal[i].Zc), modalImpedancesOhm: Array.from(plan.modal[i].Zm) })),
+            lines: sc.lines.map((l, i) => ({ id: l.id, conductors: l.conductors, velocitiesMps: Array.from(plan.modal[i].velocities), zcOhm: Array.from(plan.modal[i].Zc), modalImpedancesOhm: Array.from(plan.modal[i].Zm), ...fdCheckInfo(plan, i) })),
           }, null, 2));
         } else {
           io.out(formatCheck(plan));

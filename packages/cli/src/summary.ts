@@ -78,6 +78,13 @@ export function formatCheck(plan: Plan): string {
         formatQuantity(d.delayS, 's'), (d.k + d.f).toFixed(3), formatQuantity(d.timingErrorS, 's'), `${(d.interpolationLoss * 100).toFixed(3)} %`]);
     });
     out.push(table(rows).replace(/^/gm, '    '));
+    const fd = plan.fdLines.find((x) => x.line === i);
+    if (fd) {
+      const taus = fd.model.modes.map((m) => formatQuantity(m.tauS, 's')).join(', ');
+      out.push(`    frequency-dependent: fitted delays ${taus}`);
+      const c = fd.runCoupling;
+      if (c) out.push(`    constant modal transformation at ${formatQuantity(fd.model.transform.fHz, 'Hz')}: neglected coupling up to ${(c.max * 100).toFixed(2)} % (modes ${c.modes[0]} and ${c.modes[1]}, at ${formatQuantity(c.atHz, 'Hz')}; band ${formatQuantity(c.bandHz[0], 'Hz')} to ${formatQuantity(c.bandHz[1], 'Hz')})`);
+    }
     const n = ml.n;
     out.push('    Zc [ohm]:');
     for (let a = 0; a < n; a++) out.push(`      ${Array.from(ml.Zc.subarray(a * n, a * n + n), (z) => z.toFixed(3).padStart(10)).join(' ')}`);

@@ -56,3 +56,4 @@ export {
   type RationalFunction, type RationalFit, type VectorFitOptions, type PassivityResult,
 } from './line/vectorFitting.ts';
 export { fitFdLine, lineFunctions, simulateFdLine, prepareFdLine, type FdLineModel, type FdLineFitOptions, type FdLineSimulation, type FdLineResult } from './line/fdLine.ts';
+export { fitFdMultiLine, constantModalTransform, modeSection, modalCoupling, couplingOverBand, defaultModalFrequency, type FdMultiModel, type FdMultiFitOptions, type ModalTransform, type ModalCoupling } from './line/fdModal.ts';

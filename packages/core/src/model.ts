@@ -46,10 +46,16 @@ export interface ResolvedLine {
    */
   fdtdCells?: number;
   /**
-   * True for a one-conductor line given by a section and stepped by the frequency-dependent
-   * travelling-wave model (`model: frequency-dependent`): vector-fitted Yc and propagation function.
+   * True for a line given by a section and stepped by the frequency-dependent travelling-wave
+   * model (`model: frequency-dependent`): vector-fitted Yc and propagation function per mode,
+   * multiconductor lines under a constant real modal transformation (line/fdModal.ts).
    */
   frequencyDependent?: boolean;
+  /**
+   * Frequency of the constant modal transformation of a multiconductor frequency-dependent line
+   * (`modalFrequency`) [Hz]; undefined: the quarter-wave frequency of its slowest mode.
+   */
+  fdModalFrequencyHz?: number;
   /** The section as written in the scenario (kept for the digest and reports). */
   sectionInput?: unknown;
   /** Where the line sits in the scenario document. */

@@ -6,8 +6,9 @@
 import { LuDecomposition, Matrix, inverse } from 'ml-matrix';
 import { badInput, bug, PluginError, singularJunction } from '../errors.ts';
 import { decomposeLine, type ModalLine } from '../line/modal.ts';
+import { couplingOverBand, type ModalCoupling } from '../line/fdModal.ts';
 import { createFdtdLine, type FdtdLine } from './fdtd.ts';
-import { createFdRuntime, fitLine, type FdRuntime } from './fdRuntime.ts';
+import { createFdRuntime, fitLine, shortestFdDelay, type FdRuntime } from './fdRuntime.ts';
 import type { ResolvedJunction, ResolvedPart, ResolvedScenario } from '../model.ts';
 import type { LinearLoadInstance, LoadInstance, NonlinearLoadInstance, SetupContext, WaveformInstance } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
@@ -184,6 +185,8 @@ export interface CompileOptions {
 }
 
 const MIN_DELAY_STEPS = 1;
+/** Neglected modal coupling of a constant transformation above which compile warns (line/fdModal.ts). */
+export const FD_COUPLING_WARN = 0.01;
 
 function nextPow2(x: number): number {
   let p = 1;
@@ -207,7 +210,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   // Frequency-dependent lines are fitted first: their fitted delay bounds the time step.
   const fdModels = new Map<number, ReturnType<typeof fitLine>>();
   for (const l of scenario.lines) {
-    if (l.frequencyDependent && l.section) fdModels.set(l.index, fitLine(l.section, l.lengthM));
+    if (l.frequencyDependent && l.section) fdModels.set(l.index, fitLine(l.section, l.lengthM, { modalFrequencyHz: l.fdModalFrequencyHz }));
   }
   for (const l of scenario.lines) {
     if (l.section && !l.frequencyDependent) warn(`line ${l.id}: the time-domain solver uses the section's high-frequency L and C; its conductor, dielectric and earth losses are left out`);
@@ -233,7 +236,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       // An FDTD segment's limit is one cell at the fastest mode (the Courant condition); a
       // frequency-dependent line's is its fitted delay.
       const fm = fdModels.get(l.index);
-      const d = fm ? fm.tauS : l.fdtdCells !== undefined ? l.lengthM / l.fdtdCells / v : l.lengthM / v;
+      const d = fm ? shortestFdDelay(fm) : l.fdtdCells !== undefined ? l.lengthM / l.fdtdCells / v : l.lengthM / v;
       if (d < minDelay) {
         minDelay = d;
         minWhere = l.fdtdCells !== undefined ? `one FDTD cell of line ${l.id} at its mode ${m + 1} speed` : `line ${l.id}, mode ${m + 1}`;
@@ -293,6 +296,21 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   let bandwidth = Infinity;
   for (const w of waveformInstances) if (w.shortestFeatureS) bandwidth = Math.min(bandwidth, w.shortestFeatureS);
   const fBw = Number.isFinite(bandwidth) ? 0.35 / bandwidth : 0.1 / dtS;
+  // The constant transformation of a multiconductor frequency-dependent line neglects its modes'
+  // coupling (line/fdModal.ts), measured over the band the run resolves: from 1 / (end time) to
+  // the Nyquist frequency 1 / (2 dt). A coupling c perturbs a mode's gamma^2 by the fraction c to
+  // first order; on a 3 km unsymmetric overhead line the transient's error was about three times c
+  // (test/transient-vs-spectral/multiconductorFd.spec.ts), so 1 % is worth a warning.
+  const fdCoupling = new Map<number, ModalCoupling>();
+  for (const [index, fm] of fdModels) {
+    const l = scenario.lines[index];
+    if (fm.n < 2 || !l.section) continue;
+    const c = couplingOverBand(l.section, fm.transform, Math.min(1 / scenario.time.endS, 0.5 / dtS), 0.5 / dtS);
+    fdCoupling.set(index, c);
+    if (c.max > FD_COUPLING_WARN) {
+      warn(`line ${l.id}: the constant modal transformation (at ${formatQuantity(fm.transform.fHz, 'Hz')}) leaves modes ${c.modes[0]} and ${c.modes[1]} coupled by ${(c.max * 100).toFixed(1)} % at ${formatQuantity(c.atHz, 'Hz')}, within the band the run resolves (${formatQuantity(c.bandHz[0], 'Hz')} to ${formatQuantity(c.bandHz[1], 'Hz')}): the line's modes turn with frequency and the transient drifts from the exact solution; set the line's modalFrequency to the transient's dominant frequency`);
+    }
+  }
 
   // Delays and ring buffers.
   const delays: DelayInfo[] = [];
@@ -468,8 +486,8 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   const fdLines: FdRuntime[] = [];
   const fdOf = new Map<number, FdRuntime>();
   for (const [line, model] of fdModels) {
-    const f = createFdRuntime(line, model, dtS, nSlots);
-    nSlots += 2;
+    const f = createFdRuntime(line, model, dtS, nSlots, fdCoupling.get(line));
+    nSlots += 2 * f.n;
     fdLines.push(f);
     fdOf.set(line, f);
   }
@@ -529,14 +547,18 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     for (const e of fdtdEnds[ji]) {
       const fd = fdOf.get(e.line);
       if (fd) {
-        // Frequency-dependent line end: Norton branch g (Yc's instantaneous part) to the reference.
-        const x = jX[ji] + e.nodes[0];
-        fd.xEnd[e.end] = x;
-        conductorX[lineCondOff[e.line] * 2 + e.end] = x;
-        A[e.nodes[0] * R + e.nodes[0]] += fd.p.g;
-        exRowL.push(e.nodes[0]);
-        exSlotL.push(fd.slotBase + e.end);
-        exCoefL.push(-1);
+        // Frequency-dependent line end: Norton branch G (Yc's instantaneous part, in phase
+        // quantities) among the end's conductors, history currents through slots.
+        const n = fd.n;
+        for (let k = 0; k < n; k++) {
+          const x = jX[ji] + e.nodes[k];
+          fd.xEnd[e.end * n + k] = x;
+          conductorX[lineCondOff[e.line] * 2 + e.end * n + k] = x;
+          for (let b = 0; b < n; b++) A[e.nodes[k] * R + e.nodes[b]] += fd.G[k * n + b];
+          exRowL.push(e.nodes[k]);
+          exSlotL.push(fd.slotBase + e.end * n + k);
+          exCoefL.push(-1);
+        }
         continue;
       }
       const f = fdtdOf.get(e.line)!;

@@ -32,7 +32,10 @@
  *
  * Multiconductor lines. With n conductors H and Yc become matrices; their modal decomposition
  * T(omega) varies with frequency when the line is not homogeneous (earth return, cables with
- * sheaths). This file fits single-mode lines only. For n > 1 the two published routes are (a) a
+ * sheaths). This file fits single-mode lines only; ./fdModal.ts implements route (a) below with a
+ * constant real T0 (at a scenario's `modalFrequency`, default the quarter-wave frequency), each
+ * mode fitted here, the ends coupled through T0, and the neglected coupling measured and reported
+ * (the residual coupling is neglected, not fitted). For n > 1 the two published routes are (a) a
  * constant real transformation T0 (at a chosen frequency, e.g. the dominant frequency of the
  * transient), the modes fitted as here one by one and the residual modal coupling T0^-1 T(omega)
  * neglected or fitted as a small correction (J. R. Marti's constant-T model; L. Marti, IEEE Trans.

@@ -312,7 +312,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
       const fd = fdtdByLine.get(r.line);
       if (fd) return fd.iEnd[r.end * fd.n + r.conductor];
       const fl = fdByLine.get(r.line);
-      if (fl) return fl.iEnd[r.end];
+      if (fl) return fl.iEnd[r.end * fl.n + r.conductor];
       const ml = plan.modal[r.line];
       const n = ml.n;
       const p0 = plan.lineEndPort[2 * r.line + r.end];

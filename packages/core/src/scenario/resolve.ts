@@ -171,7 +171,7 @@ function resolveTime(doc: LocatedDocument, v: unknown): ResolvedTime {
 function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number, junctionIndex: Map<string, number>, opts: ResolveOptions): ResolvedLine {
   const path = ['lines', id];
   const l = expectObj(doc, path, v, 'a mapping describing the line (from, to, length, and its matrices or section)');
-  checkKeys(doc, path, l, ['from', 'to', 'length', 'conductors', 'inductance', 'capacitance', 'resistance', 'conductance', 'impedance', 'velocity', 'section', 'fdtd', 'model']);
+  checkKeys(doc, path, l, ['from', 'to', 'length', 'conductors', 'inductance', 'capacitance', 'resistance', 'conductance', 'impedance', 'velocity', 'section', 'fdtd', 'model', 'modalFrequency']);
   const end = (key: 'from' | 'to'): number => {
     if (l[key] === undefined) throw doc.fail([...path, key], `is required: the junction at the line's ${key} end`, undefined, 'E_MISSING');
     const j = junctionIndex.get(String(l[key]));
@@ -262,15 +262,19 @@ function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number
     }
     if (l.model === 'frequency-dependent') {
       if (!section) throw doc.fail([...path, 'model'], 'needs a line given by a section (its parameters over frequency)', l.model, 'E_FD_NEEDS_SECTION');
-      if (n !== 1) throw doc.fail([...path, 'model'], `is available for one-conductor lines in this version; this section has ${n} conductors`, l.model, 'E_FD_MULTICONDUCTOR');
       frequencyDependent = true;
     }
+  }
+  let fdModalFrequencyHz: number | undefined;
+  if (l.modalFrequency !== undefined) {
+    if (!frequencyDependent || n < 2) throw doc.fail([...path, 'modalFrequency'], 'applies only to a multiconductor line with model: frequency-dependent (it sets the frequency of the constant modal transformation)', l.modalFrequency, 'E_FD_MODAL_FREQUENCY');
+    fdModalFrequencyHz = quantity(doc, [...path, 'modalFrequency'], l.modalFrequency, 'Hz', 'positive');
   }
   if (fdtdCells !== undefined && section) {
     throw doc.fail([...path, 'fdtd'], 'is not available for a line given by a section in this version (the section\'s losses depend on frequency); give R, L, G, C matrices', l.fdtd ?? 'lossy section', 'E_FDTD_SECTION');
   }
   return {
-    fdtdCells, frequencyDependent, id, index, from, to, lengthM, conductors, L, C, R, G, path, origin, section, sectionInput: section ? l.section : undefined };
+    fdtdCells, frequencyDependent, fdModalFrequencyHz, id, index, from, to, lengthM, conductors, L, C, R, G, path, origin, section, sectionInput: section ? l.section : undefined };
 }
 
 function velocity(doc: LocatedDocument, path: DocPath, v: unknown): number {
