@@ -139,8 +139,8 @@ async function runFile(file: string, outPath: string, flags: Flags, io: Io): Pro
   const progress = createProgress(`running ${basename(file)}`, process.stderr, flags.quiet);
   let result;
   if (threads > 1) {
-    readScenario(file, registry);
-    result = await runPartitioned({ text: readFileSync(file, 'utf8'), file }, { registry, threads, onProgress: (f) => progress.update(f) });
+    const scenario = readScenario(file, registry);
+    result = await runPartitioned({ text: readFileSync(file, 'utf8'), file, scenario }, { registry, threads, onProgress: (f) => progress.update(f) });
   } else {
     const sc = readScenario(file, registry);
     const plan = await compileScenario(sc, { registry });

@@ -25,6 +25,8 @@ export interface ScenarioSource {
   text?: string;
   data?: unknown;
   file?: string;
+  /** The scenario already resolved from `text` or `data` (saves resolving it again). */
+  scenario?: ResolvedScenario;
 }
 
 /** Options of a partitioned run. */
@@ -94,7 +96,7 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
     ? resolveScenarioText(source.text, { registry, file: source.file })
     : resolveScenarioData(source.data, { registry, file: source.file });
   const t0 = performance.now();
-  const scenario = resolve();
+  const scenario = source.scenario ?? resolve();
   const firstPlan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
   const { partition, decision } = decidePartition(firstPlan, opts);
   if (!partition) {
