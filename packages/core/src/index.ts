@@ -21,7 +21,7 @@ export {
   SCENARIO_FORMAT_VERSION, REFERENCE_NODE,
   type ResolveOptions, type SectionResolver, type SectionMatrices,
 } from './scenario/resolve.ts';
-export type { ResolvedScenario, ResolvedLine, ResolvedJunction, ResolvedPart, ResolvedPort, ResolvedProbe, ResolvedTime } from './model.ts';
+export type { ResolvedScenario, ResolvedLine, ResolvedJunction, ResolvedPart, ResolvedPort, ResolvedProbe, ResolvedTime, ResolvedProfile, ResolvedStretch, ResolvedTaper } from './model.ts';
 export { decomposeLine, type ModalLine } from './line/modal.ts';
 export { compileScenario, type Plan, type DelayInfo, type CompileOptions } from './compile/compile.ts';
 export { widenRings } from './compile/rings.ts';
@@ -51,6 +51,7 @@ export { fdtdStep1 } from './kernel/fdtdStep1.ts';
 export { fdtdStep2 } from './kernel/fdtdStep2.ts';
 export { fdtdStep3 } from './kernel/fdtdStep3.ts';
 export { fdtdStep4 } from './kernel/fdtdStep4.ts';
+export { fdtdStepVarying } from './kernel/fdtdStepVarying.ts';
 export {
   vectorFit, evaluateRational, fitErrors, passivityGrid, enforceAdmittancePassivity, enforceBoundedMagnitude,
   type RationalFunction, type RationalFit, type VectorFitOptions, type PassivityResult,

@@ -20,7 +20,39 @@ export interface ResolvedTime {
   delays: 'interpolate' | 'round';
 }
 
-/** A uniform multiconductor line. Matrices are n x n, row-major, per metre. */
+/** One uniform stretch of a line whose parameters vary along it. Matrices n x n, row-major, per metre. */
+export interface ResolvedStretch {
+  lengthM: number;
+  L: Float64Array;
+  C: Float64Array;
+  R: Float64Array;
+  G: Float64Array;
+  /** Where the stretch sits in the scenario document. */
+  path: DocPath;
+}
+
+/**
+ * A smooth taper of a one-conductor line's characteristic impedance from Z_from (z = 0) to Z_to
+ * (z = length) at a constant velocity v: exponential, Z(z) = Z_from (Z_to / Z_from)^(z / length),
+ * or linear, Z(z) = Z_from + (Z_to - Z_from) z / length. Then L(z) = Z(z) / v, C(z) = 1 / (Z(z) v).
+ */
+export interface ResolvedTaper {
+  fromOhm: number;
+  toOhm: number;
+  velocityMps: number;
+  shape: 'exponential' | 'linear';
+}
+
+/**
+ * How a line's per-unit-length parameters vary along it (stepped by an FDTD segment only):
+ * consecutive uniform stretches from z = 0, or a taper with constant R and G (ResolvedLine.R, G).
+ */
+export type ResolvedProfile = { kind: 'stretches'; stretches: ResolvedStretch[] } | { kind: 'taper'; taper: ResolvedTaper };
+
+/**
+ * A multiconductor line. Matrices are n x n, row-major, per metre. Uniform unless it has a
+ * profile; a line with a profile carries here the parameters at its from end (z = 0).
+ */
 export interface ResolvedLine {
   id: string;
   index: number;
@@ -45,6 +77,8 @@ export interface ResolvedLine {
    * for one (`fdtd: { cells }`); undefined for travelling-wave (method of characteristics) lines.
    */
   fdtdCells?: number;
+  /** Parameters varying along the line (`stretches` or `taper` in the scenario); the line is then stepped by FDTD. */
+  profile?: ResolvedProfile;
   /**
    * True for a line given by a section and stepped by the frequency-dependent travelling-wave
    * model (`model: frequency-dependent`): vector-fitted Yc and propagation function per mode,

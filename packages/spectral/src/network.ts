@@ -93,6 +93,12 @@ export async function compileNetwork(scenario: ResolvedScenario, registry: Plugi
   });
   const nNodes = nodeOffset[scenario.junctions.length];
   const lines: NetLine[] = scenario.lines.map((line) => {
+    if (line.profile) {
+      // A line whose parameters vary along it (stretches, taper) is stepped by FDTD in the time
+      // domain only; its chain matrix here would need the profile, which this solver does not read.
+      const key = line.profile.kind === 'stretches' ? 'stretches' : 'taper';
+      throw badInput([...line.path, key], 'is available in the time-domain solver only in this version; for a frequency-domain run write the line as uniform lines joined at junctions', line.profile.kind, 'E_SPECTRAL_VARYING', scenario.locate([...line.path, key]));
+    }
     const n = line.conductors.length;
     return { line, n, nodes0: new Int32Array(n).fill(-1), nodes1: new Int32Array(n).fill(-1), offset: -1 };
   });

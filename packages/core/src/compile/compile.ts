@@ -8,6 +8,7 @@ import { badInput, bug, PluginError, singularJunction } from '../errors.ts';
 import { decomposeLine, type ModalLine } from '../line/modal.ts';
 import { couplingOverBand, type ModalCoupling } from '../line/fdModal.ts';
 import { createFdtdLine, type FdtdLine } from './fdtd.ts';
+import { createFdtdProfileLine, profileCells, type CellProfile } from './fdtdProfile.ts';
 import { createFdRuntime, fitLine, shortestFdDelay, type FdRuntime } from './fdRuntime.ts';
 import type { ResolvedJunction, ResolvedPart, ResolvedScenario } from '../model.ts';
 import type { LinearLoadInstance, LoadInstance, NonlinearLoadInstance, SetupContext, WaveformInstance } from '../plugins/api.ts';
@@ -227,11 +228,22 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
     }
     return m;
   });
+  // Lines whose parameters vary along them: their cells, whose fastest bounds the time step.
+  const profiles = new Map<number, CellProfile>();
+  for (const l of scenario.lines) if (l.profile && l.fdtdCells !== undefined) profiles.set(l.index, profileCells(l, l.fdtdCells));
 
   // Shortest delay per line mode.
   let minDelay = Infinity;
   let minWhere = '';
   scenario.lines.forEach((l, i) => {
+    const prof = profiles.get(l.index);
+    if (prof) {
+      if (prof.minDelayS < minDelay) {
+        minDelay = prof.minDelayS;
+        minWhere = `FDTD cell ${prof.minCell + 1} of line ${l.id} at its fastest mode's speed`;
+      }
+      return;
+    }
     modal[i].velocities.forEach((v, m) => {
       // An FDTD segment's limit is one cell at the fastest mode (the Courant condition); a
       // frequency-dependent line's is its fitted delay.
@@ -493,6 +505,20 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   }
   for (const l of scenario.lines) {
     if (l.fdtdCells === undefined) continue;
+    const prof = profiles.get(l.index);
+    if (prof) {
+      if (dtS > prof.minDelayS * (1 + 1e-12)) {
+        const dz = prof.dzM[prof.minCell];
+        const v = prof.vMaxMps[prof.minCell];
+        const at = prof.minWhere.slice(l.path.length).map((x) => (typeof x === 'number' ? `[${x}]` : `.${x}`)).join('').slice(1);
+        throw badInput([...l.path, 'fdtd', 'cells'], `gives its fastest cell (cell ${prof.minCell + 1}, in ${at}: ${formatQuantity(dz, 'm')} at ${formatQuantity(v, 'm/s')}) a delay of ${formatQuantity(prof.minDelayS, 's')}, shorter than the time step ${formatQuantity(dtS, 's')} (the Courant condition needs dt <= dz / v in every cell); use fewer cells or a shorter step`, l.fdtdCells, 'E_FDTD_COURANT', scenario.locate([...l.path, 'fdtd', 'cells']));
+      }
+      const f = createFdtdProfileLine(l, prof, dtS, nSlots);
+      nSlots += 2 * f.n;
+      fdtd.push(f);
+      fdtdOf.set(l.index, f);
+      continue;
+    }
     const vmax = Math.max(...modal[l.index].velocities);
     const dz = l.lengthM / l.fdtdCells;
     if (dtS > (dz / vmax) * (1 + 1e-12)) {
@@ -567,7 +593,7 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
         const x = jX[ji] + e.nodes[k];
         f.xEnd[e.end * n + k] = x;
         conductorX[lineCondOff[e.line] * 2 + e.end * n + k] = x;
-        for (let b = 0; b < n; b++) A[e.nodes[k] * R + e.nodes[b]] += f.g[k * n + b];
+        for (let b = 0; b < n; b++) A[e.nodes[k] * R + e.nodes[b]] += f.g[e.end * n * n + k * n + b];
         exRowL.push(e.nodes[k]);
         exSlotL.push(f.slotBase + e.end * n + k);
         exCoefL.push(-1);

@@ -101,10 +101,19 @@ export interface NetworkSummary {
   probes: Array<{ id: string; type: string }>;
 }
 
-interface PointRec { line: number; positionM: number; kf: Int32Array; ff: Float64Array; kb: Int32Array; fb: Float64Array }
+/** A point on a line; zNode: on an FDTD segment, the position in node units (node k at k, linear between nodes). */
+interface PointRec { line: number; positionM: number; kf: Int32Array; ff: Float64Array; kb: Int32Array; fb: Float64Array; zNode?: number }
 interface PortRec { line: number; end: number; conductor: number }
 
 const CHECK_EVERY = 1024;
+
+/** Position z [m] on an FDTD segment in node units: k + t between nodes k and k + 1 (uniform cells of dz, or the node positions of a varying line). */
+function fdtdNodeCoordinate(zNodeM: Float64Array | undefined, dzM: number, cells: number, z: number): number {
+  if (!zNodeM) return z / dzM;
+  let k = 0;
+  while (k < cells - 1 && zNodeM[k + 1] <= z) k++;
+  return k + Math.min(1, (z - zNodeM[k]) / (zNodeM[k + 1] - zNodeM[k]));
+}
 
 /**
  * Validated scenario in, results out.
@@ -205,6 +214,8 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
             rec.kb[m] = Math.floor(sb + 1e-9);
             rec.fb[m] = Math.max(0, sb - rec.kb[m]);
           }
+          const seg = plan.fdtd.find((f) => f.line === l);
+          if (seg) rec.zNode = fdtdNodeCoordinate(seg.zNodeM, seg.dzM, seg.cells, positionM);
           points.push(rec);
           return (points.length - 1) as PointHandle;
         },
@@ -272,7 +283,7 @@ export async function runPlan(plan: Plan, options: RunOptions, compileS = 0): Pr
     const fd = fdtdByLine.get(rec.line);
     if (fd) {
       // FDTD segment: voltages on nodes, currents at cell centres (half a step older), linear in z.
-      const z = (rec.positionM / fd.dzM);
+      const z = rec.zNode!;
       if (!current) {
         const c = Math.min(fd.cells - 1, Math.floor(z));
         const t = z - c;

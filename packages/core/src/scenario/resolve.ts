@@ -13,6 +13,7 @@ import { parseQuantity, quantityName, unitExample, type UnitSymbol } from '../un
 import type { LineSection } from '@skein/lines';
 import { parseLocatedDocument, plainDocument, type LocatedDocument } from './document.ts';
 import { resolveSection } from './section.ts';
+import { resolveVaryingLine } from './resolveVarying.ts';
 
 /** The format version this engine reads. */
 export const SCENARIO_FORMAT_VERSION = 1;
@@ -69,18 +70,18 @@ function isObj(v: unknown): v is Obj {
   return v !== null && typeof v === 'object' && !Array.isArray(v);
 }
 
-function expectObj(doc: LocatedDocument, path: DocPath, v: unknown, what: string): Obj {
+export function expectObj(doc: LocatedDocument, path: DocPath, v: unknown, what: string): Obj {
   if (!isObj(v)) throw doc.fail(path, `must be ${what}`, v, 'E_TYPE');
   return v;
 }
 
-function checkKeys(doc: LocatedDocument, path: DocPath, v: Obj, allowed: readonly string[]): void {
+export function checkKeys(doc: LocatedDocument, path: DocPath, v: Obj, allowed: readonly string[]): void {
   for (const k of Object.keys(v)) {
     if (!allowed.includes(k)) throw doc.fail([...path, k], `is not a known key here; accepted: ${allowed.join(', ')}`, v[k], 'E_UNKNOWN_KEY');
   }
 }
 
-function quantity(doc: LocatedDocument, path: DocPath, v: unknown, unit: UnitSymbol, rule: 'positive' | 'nonnegative' | 'any' = 'any'): number {
+export function quantity(doc: LocatedDocument, path: DocPath, v: unknown, unit: UnitSymbol, rule: 'positive' | 'nonnegative' | 'any' = 'any'): number {
   const x = parseQuantity(v, unit);
   if (x === undefined) throw doc.fail(path, `must be a ${quantityName(unit)} such as ${unitExample(unit)}`, v, 'E_QUANTITY');
   if (rule === 'positive' && !(x > 0)) throw doc.fail(path, `must be a positive ${quantityName(unit)}`, v, 'E_RANGE');
@@ -97,7 +98,7 @@ function identifier(doc: LocatedDocument, path: DocPath, v: unknown, what: strin
  * Reads an n x n matrix per metre. A single conductor may give a scalar. Checks symmetry and
  * (unless `allowZero`) positive definiteness.
  */
-function matrix(doc: LocatedDocument, path: DocPath, v: unknown, n: number | undefined, unit: UnitSymbol, semidefinite: boolean): Float64Array {
+export function matrix(doc: LocatedDocument, path: DocPath, v: unknown, n: number | undefined, unit: UnitSymbol, semidefinite: boolean): Float64Array {
   let rows: unknown[][];
   if (!Array.isArray(v)) rows = [[v]];
   else if (v.length > 0 && v.every((r) => Array.isArray(r))) rows = v as unknown[][];
@@ -171,7 +172,7 @@ function resolveTime(doc: LocatedDocument, v: unknown): ResolvedTime {
 function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number, junctionIndex: Map<string, number>, opts: ResolveOptions): ResolvedLine {
   const path = ['lines', id];
   const l = expectObj(doc, path, v, 'a mapping describing the line (from, to, length, and its matrices or section)');
-  checkKeys(doc, path, l, ['from', 'to', 'length', 'conductors', 'inductance', 'capacitance', 'resistance', 'conductance', 'impedance', 'velocity', 'section', 'fdtd', 'model', 'modalFrequency']);
+  checkKeys(doc, path, l, ['from', 'to', 'length', 'conductors', 'inductance', 'capacitance', 'resistance', 'conductance', 'impedance', 'velocity', 'section', 'fdtd', 'model', 'modalFrequency', 'stretches', 'taper']);
   const end = (key: 'from' | 'to'): number => {
     if (l[key] === undefined) throw doc.fail([...path, key], `is required: the junction at the line's ${key} end`, undefined, 'E_MISSING');
     const j = junctionIndex.get(String(l[key]));
@@ -182,8 +183,6 @@ function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number
   };
   const from = end('from');
   const to = end('to');
-  if (l.length === undefined) throw doc.fail([...path, 'length'], 'is required, e.g. 12m', undefined, 'E_MISSING');
-  const lengthM = quantity(doc, [...path, 'length'], l.length, 'm', 'positive');
 
   let conductors: string[] | undefined;
   if (l.conductors !== undefined) {
@@ -195,6 +194,10 @@ function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number
       seen.add(c);
     });
   }
+  // A line whose parameters vary along it (stretches or a taper): scenario/resolveVarying.ts.
+  if (l.stretches !== undefined || l.taper !== undefined) return resolveVaryingLine(doc, path, l, { id, index, from, to, conductors });
+  if (l.length === undefined) throw doc.fail([...path, 'length'], 'is required, e.g. 12m', undefined, 'E_MISSING');
+  const lengthM = quantity(doc, [...path, 'length'], l.length, 'm', 'positive');
   let L: Float64Array;
   let C: Float64Array;
   let R: Float64Array | undefined;
@@ -277,7 +280,7 @@ function resolveLine(doc: LocatedDocument, id: string, v: unknown, index: number
     fdtdCells, frequencyDependent, fdModalFrequencyHz, id, index, from, to, lengthM, conductors, L, C, R, G, path, origin, section, sectionInput: section ? l.section : undefined };
 }
 
-function velocity(doc: LocatedDocument, path: DocPath, v: unknown): number {
+export function velocity(doc: LocatedDocument, path: DocPath, v: unknown): number {
   let x: number | undefined;
   if (typeof v === 'string' && /^\s*[0-9.eE+-]+\s*c\s*$/.test(v)) x = Number(v.trim().slice(0, -1)) * SPEED_OF_LIGHT;
   else x = parseQuantity(v, 'm/s');
