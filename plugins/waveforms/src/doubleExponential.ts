@@ -3,6 +3,7 @@
  */
 import { badInput, defineSource } from '@skein/core';
 import { AMPLITUDE, DELAY } from './edge.ts';
+import { addDoubleExponential } from './laplace.ts';
 
 /** Multiples of tau2 after which the tail is taken as settled: exp(-40) = 4.2e-18. */
 const SETTLE_TAUS = 40;
@@ -49,6 +50,12 @@ export const doubleExponentialSource = defineSource({
         const t = tS - t0;
         if (t <= 0) return 0;
         return ak * (Math.exp(-t * r2) - Math.exp(-t * r1));
+      },
+      // W(s) = A k e^{-s t0} (1/tau1 - 1/tau2) / ((s + 1/tau1)(s + 1/tau2))
+      laplace(sigma: number, omega: number, out: Float64Array): void {
+        out[0] = 0;
+        out[1] = 0;
+        addDoubleExponential(sigma, omega, t0, r1, r2, ak, out);
       },
     };
   },

@@ -3,6 +3,7 @@
  */
 import { defineSource } from '@skein/core';
 import { AMPLITUDE, DELAY, linearEdge } from './edge.ts';
+import { addEdge } from './laplace.ts';
 
 /**
  * The ramp waveform plugin. Params: amplitude [V or A, default 1], delay [s, default 0], rise [s, > 0, required].
@@ -24,6 +25,12 @@ export const rampSource = defineSource({
       shortestFeatureS: rise,
       settledAfterS: t0 + rise,
       value: (tS: number): number => a * linearEdge(tS - t0, rise),
+      // W(s) = A e^{-s t0} (1 - e^{-s rise}) / (rise s^2)
+      laplace(sigma: number, omega: number, out: Float64Array): void {
+        out[0] = 0;
+        out[1] = 0;
+        addEdge(sigma, omega, t0, rise, a, out);
+      },
     };
   },
 });

@@ -3,6 +3,7 @@
  */
 import { defineSource } from '@skein/core';
 import { AMPLITUDE, DELAY, linearEdge, smoothEdge } from './edge.ts';
+import { addEdge } from './laplace.ts';
 
 /**
  * The step waveform plugin.
@@ -24,13 +25,22 @@ export const stepSource = defineSource({
     const t0 = p.delay;
     const rise = p.rise;
     const smooth = p.edge === 'smooth';
+    const value = (tS: number): number => {
+      const tau = tS - t0;
+      if (rise <= 0) return tau >= 0 ? a : 0;
+      return a * (smooth ? smoothEdge(tau, rise) : linearEdge(tau, rise));
+    };
+    const base = { shortestFeatureS: rise > 0 ? rise : undefined, settledAfterS: t0 + rise, value };
+    // Ideal and linear edges: W(s) = A e^{-s t0} / s and A e^{-s t0} (1 - e^{-s rise}) / (rise s^2).
+    // The raised cosine has a removable 0/0 at omega = pi / rise on the axis; it keeps the engine's
+    // sampled transform (no hook).
+    if (smooth && rise > 0) return base;
     return {
-      shortestFeatureS: rise > 0 ? rise : undefined,
-      settledAfterS: t0 + rise,
-      value(tS: number): number {
-        const tau = tS - t0;
-        if (rise <= 0) return tau >= 0 ? a : 0;
-        return a * (smooth ? smoothEdge(tau, rise) : linearEdge(tau, rise));
+      ...base,
+      laplace(sigma: number, omega: number, out: Float64Array): void {
+        out[0] = 0;
+        out[1] = 0;
+        addEdge(sigma, omega, t0, rise, a, out);
       },
     };
   },

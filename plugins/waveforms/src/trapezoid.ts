@@ -3,6 +3,7 @@
  */
 import { defineSource } from '@skein/core';
 import { AMPLITUDE, DELAY } from './edge.ts';
+import { addEdge } from './laplace.ts';
 
 /**
  * The trapezoid waveform plugin. Params: amplitude [V or A, default 1], delay [s, default 0],
@@ -35,6 +36,18 @@ export const trapezoidSource = defineSource({
         if (tS < t1) return (a * (tS - t0)) / rise;
         if (tS <= t2) return a;
         return (a * (t3 - tS)) / fall;
+      },
+      // A rising edge at t0 minus a rising edge of duration fall at t2 (superposition):
+      // W(s) = A [e^{-s t0} (1 - e^{-s rise}) / (rise s^2) - e^{-s t2} (1 - e^{-s fall}) / (fall s^2)].
+      laplace(sigma: number, omega: number, out: Float64Array): void {
+        out[0] = 0;
+        out[1] = 0;
+        if (sigma === 0 && omega === 0) {
+          out[0] = a * (rise / 2 + p.width + fall / 2); // the area, W(0)
+          return;
+        }
+        addEdge(sigma, omega, t0, rise, a, out);
+        addEdge(sigma, omega, t2, fall, -a, out);
       },
     };
   },
