@@ -3,24 +3,12 @@
 // and a lossy three-stretch line against the frequency-domain solution of the same line written
 // as three uniform lines in series.
 import { describe, expect, it } from 'vitest';
-import { resolveScenarioText } from '@skein/core';
+import { resolveScenarioText, runPartitioned } from '@skein/core';
 import { timeResponse } from '@skein/spectral';
 import { expectClose, worstRelativeToPeak } from '../support/compare.ts';
 import { runText, standardRegistry } from '../support/run.ts';
 
-describe('a line of two stretches', () => {
-  it('reflects a step with (Z2 - Z1) / (Z2 + Z1) and transmits 2 Z2 / (Z1 + Z2) at the times of flight', async () => {
-    // Bewley lattice / common transmission-line theory (L. V. Bewley, Trans. AIEE 50, 1931, from
-    // memory): a 1 V step behind 50 ohm into 2 m of 50 ohm then 3 m of 75 ohm (v = 2e8 m/s, delays
-    // 10 ns and 15 ns), ended in 75 ohm. The incident 0.5 V meets the change at 10 ns: reflection
-    // (75 - 50) / 125 = 0.2 back to the source (seen there from 20 ns: 0.5 (1 + 0.2) = 0.6),
-    // transmission 2 x 75 / 125 = 1.2 on to the matched load (from 25 ns: 0.6). The source and the
-    // load are matched, so nothing else returns. Cells of 0.1 m (20 + 30, shared by delay) and a
-    // step of one cell delay (0.5 ns), where the leapfrog carries a wave on each uniform stretch
-    // without dispersion; the edge takes 2 ns (smooth), so the plateaus are read 3 ns after each
-    // arrival. Tolerance 1e-9: at this step the scheme is exact on uniform stretches, and the
-    // junction node of two stretches is exact in the DC limit the plateaus are (measured ~1e-15).
-    const r = await runText(`
+const TWO_STRETCHES = `
 skein: 1
 time: { end: 60ns, step: 0.5ns }
 lines:
@@ -43,7 +31,21 @@ probes:
   far: { probe: node-voltage, node: B.b }
   joint: { probe: line-point, line: feed, position: 2m }
   ledger: { probe: energy-ledger }
-`, 'twoStretches.yaml');
+`;
+
+describe('a line of two stretches', () => {
+  it('reflects a step with (Z2 - Z1) / (Z2 + Z1) and transmits 2 Z2 / (Z1 + Z2) at the times of flight', async () => {
+    // Bewley lattice / common transmission-line theory (L. V. Bewley, Trans. AIEE 50, 1931, from
+    // memory): a 1 V step behind 50 ohm into 2 m of 50 ohm then 3 m of 75 ohm (v = 2e8 m/s, delays
+    // 10 ns and 15 ns), ended in 75 ohm. The incident 0.5 V meets the change at 10 ns: reflection
+    // (75 - 50) / 125 = 0.2 back to the source (seen there from 20 ns: 0.5 (1 + 0.2) = 0.6),
+    // transmission 2 x 75 / 125 = 1.2 on to the matched load (from 25 ns: 0.6). The source and the
+    // load are matched, so nothing else returns. Cells of 0.1 m (20 + 30, shared by delay) and a
+    // step of one cell delay (0.5 ns), where the leapfrog carries a wave on each uniform stretch
+    // without dispersion; the edge takes 2 ns (smooth), so the plateaus are read 3 ns after each
+    // arrival. Tolerance 1e-9: at this step the scheme is exact on uniform stretches, and the
+    // junction node of two stretches is exact in the DC limit the plateaus are (measured ~1e-15).
+    const r = await runText(TWO_STRETCHES, 'twoStretches.yaml');
     const g = (75 - 50) / (75 + 50);
     const t = (2 * 75) / (75 + 50);
     expectClose('reflection coefficient', g, 0.2, { rel: 1e-12 });
@@ -59,6 +61,15 @@ probes:
     const l = r.ledger!;
     expect(l.lostJ).toBe(0);
     expect(Math.abs(l.residualJ) / l.deliveredJ).toBeLessThan(1e-6);
+    // Asked for two threads, the run stays on one (FDTD segments are not partitioned) and gives
+    // the same samples, bit for bit.
+    const registry = await standardRegistry();
+    const p = await runPartitioned({ text: TWO_STRETCHES, file: 'twoStretches.yaml' }, { registry, threads: 2 });
+    expect(p.partition.used).toBe(1);
+    expect(p.warnings.some((w) => w.startsWith('ran on 1 thread of 2 asked'))).toBe(true);
+    expect(p.traceNames).toEqual(r.traceNames);
+    expect(p.traces.data.length).toBe(r.traces.data.length);
+    for (let i = 0; i < r.traces.data.length; i++) if (!Object.is(p.traces.data[i], r.traces.data[i])) expect.fail(`sample ${i}: ${p.traces.data[i]} vs ${r.traces.data[i]}`);
   });
 });
 

@@ -73,6 +73,37 @@ ${ends('horn', 50, 60, '0.2ns')}`, 'taper.yaml');
     expectLedgerClosed(r);
   });
 
+  it('reflects, with a linear taper, as ln(Z(v t / 2) / Z1) / 2 of the small-reflection theory', async () => {
+    // The same theory (Pozar, sec. 5.8, from memory) in the time domain for any smooth taper: the
+    // reflection of a step V+ after time t (from the edge) gathers d(ln Z)/dz / 2 over the first
+    // v t / 2 of the line, V+ ln(Z(v t / 2) / Z1) / 2 until the round trip. Linear, 50 to 60 ohm
+    // over 1 m: Z(z) = 50 + 10 z / 1 m, so a concave rise (unlike the exponential taper's
+    // straight ramp) to the same plateau. Tolerance 1 % of the plateau, as above (third-order
+    // terms of the theory).
+    const r = await runText(`
+skein: 1
+time: { end: 20ns, step: 12.5ps, record: 4 }
+lines:
+  horn:
+    from: A
+    to: B
+    length: 1m
+    taper: { impedance: [50ohm, 60ohm], velocity: 2e8m/s, shape: linear }
+    fdtd: { cells: 400 }
+${ends('horn', 50, 60, '0.2ns')}`, 'linearTaper.yaml');
+    const plateau = 0.5 * (Math.log(60 / 50) / 2);
+    const samples: number[] = [];
+    for (const ts of [2.6e-9, 5.1e-9, 7.6e-9, 12e-9, 19.5e-9]) {
+      const z = Math.min(1, ((ts - 0.1e-9) * V) / 2);
+      const expected = 0.5 * (Math.log((50 + 10 * z) / 50) / 2);
+      samples.push(r.at('near.v', ts) - 0.5);
+      expectClose(`reflected wave at ${ts * 1e9} ns`, samples[samples.length - 1], expected, { rel: 0, abs: 0.01 * plateau });
+    }
+    // Concave, unlike a ramp: the first quarter of the round trip gathers more than a quarter.
+    expect(samples[0] / plateau).toBeGreaterThan(0.26);
+    expectLedgerClosed(r);
+  });
+
   it('gives the frequency-domain solution of its cascade of uniform sections within 1 % of the reflected wave, as the cascade converges', async () => {
     // A strong taper, 50 to 100 ohm over 1 m. The reference is the frequency-domain solution
     // (exact line solutions at each frequency, packages/spectral, transformed to time) of the same
