@@ -124,6 +124,10 @@ junctions:
     expect(Math.abs(v[4] - 0.79012346)).toBeLessThan(2e-8);
     expect(Math.abs(v[6] - 0.80109739)).toBeLessThan(2e-8);
     expect((r.doc.outputs as { timeResponse: { kind: string } }).timeResponse.kind).toBe('laplace');
+    // The file holds traces like a run's (no sweep), so the trace plot reads it.
+    expect(r.doc.spectral).toBeUndefined();
+    expect(await main(['plot', join(dir, 'lattice.spectrum.msgpack'), '--out', dir], capture().io)).toBe(0);
+    expect(existsSync(join(dir, 'lattice.spectrum.traces.svg'))).toBe(true);
     // Bad flags: a clear error and exit code 2.
     const e = capture();
     expect(await main(['spectrum', scenario, '--until', '7us', '--every', '1us', '--inversion', 'z'], e.io)).toBe(2);

@@ -312,7 +312,7 @@ async function spectrumCommand(args: string[], io: Io): Promise<number> {
     const { section, table, touchstone, time } = await runSpectrumCommand(cmd, sc, registry);
     io.out(table);
     const out = flags.results ?? cmd.scenarioFile.replace(/\.(ya?ml|json)$/i, '') + '.spectrum.msgpack';
-    writeFileAtomic(out, encodeResults(spectralResultsDocument(sc, section, new Date(), time)));
+    writeFileAtomic(out, encodeResults(spectralResultsDocument(sc, time ? undefined : section, new Date(), time)));
     io.out(`Results: ${out}`);
     if (touchstone !== undefined && cmd.touchstoneFile) {
       writeFileAtomic(cmd.touchstoneFile, touchstone);

@@ -7,7 +7,10 @@
 import { ENGINE_VERSION, RESULTS_FORMAT, RESULTS_VERSION, float64ToBytes, summariseNetwork, type ResolvedScenario, type ResultsDocument } from '@skein/core';
 import type { TimeResponse } from '@skein/spectral';
 
-/** Builds the results document of a spectrum run (with `time`: of a time response from the spectrum). */
+/**
+ * Builds the results document of a spectrum run; with `time` that of a time response from the
+ * spectrum (pass `spectral` undefined then: the file holds traces, like a run's, and no sweep).
+ */
 export function spectralResultsDocument(sc: ResolvedScenario, spectral: unknown, created = new Date(), time?: TimeResponse): ResultsDocument {
   const doc: ResultsDocument = {
     format: RESULTS_FORMAT,

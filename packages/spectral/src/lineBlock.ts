@@ -8,6 +8,9 @@
  *   Y11 = T diag(coth(gamma l) / gamma) T^-1 Y,   Y12 = -T diag(csch(gamma l) / gamma) T^-1 Y.
  * coth and csch are formed from E = exp(-gamma l) and 1 - E^2 = -expm1(-2 gamma l), so a long lossy
  * line (E -> 0) and a short line at low frequency (gamma l -> 0) both stay accurate.
+ * Nothing here assumes s = j omega: Z and Y may be taken at complex s = sigma + j omega (Z(s), Y(s)
+ * for the numerical Laplace transform); gamma = sqrt(eig(Y Z)) with Re gamma >= 0 is then the
+ * continuation from the axis for sigma >= 0, where the line's damping only grows.
  */
 import { cEigen, cInverse, cMul, cZeros, csqrt, type CMatrix } from './complex.ts';
 
