@@ -1,7 +1,7 @@
 // Invariance: transient vs spectral for frequency-dependent multiconductor lines under a constant
 // real modal transformation (packages/core/src/line/fdModal.ts).
 import { describe, expect, it } from 'vitest';
-import { resolveScenarioText } from '@skein/core';
+import { resolveScenarioText, runPartitioned } from '@skein/core';
 import { timeResponse } from '@skein/spectral';
 import { worstRelativeToPeak } from '../support/compare.ts';
 import { runText, standardRegistry } from '../support/run.ts';
@@ -98,6 +98,19 @@ probes:
   ec: { probe: node-voltage, node: east.c }
   ledger: { probe: energy-ledger }
 `;
+
+describe('runPartitioned with a frequency-dependent multiconductor line', () => {
+  it('stays on one thread, says why, and gives the serial result', async () => {
+    const registry = await standardRegistry();
+    const serial = await runText(PAIR_NET, 'pair.yaml');
+    const r = await runPartitioned({ text: PAIR_NET, file: 'pair.yaml' }, { registry, threads: 2 });
+    expect(r.partition.used).toBe(1);
+    expect(r.partition.reason).toMatch(/frequency-dependent lines are not partitioned/);
+    expect(r.warnings.some((w) => w.startsWith('ran on 1 thread of 2 asked'))).toBe(true);
+    // Same plan, same arithmetic order: bit for bit.
+    expect(Array.from(r.traces.data)).toEqual(Array.from(serial.traces.data));
+  }, 120_000);
+});
 
 describe('transient vs spectral, constant transformation on an unsymmetric overhead line', () => {
   it('stays within 3 % of each peak with the default transformation and drifts with a poor one, which is warned about', async () => {
