@@ -73,7 +73,7 @@ export interface LineFunctions {
 }
 
 function checkSingle(section: LineSection, lengthM: number): void {
-  if (section.n !== 1) throw badInput(['fdLine', 'section', 'conductors'], 'must be one conductor (this model is single-mode; see fdLine.ts for multiconductor lines)', `${section.n} conductors (${section.conductors.join(', ')})`);
+  if (section.n !== 1) throw badInput(['fdLine', 'section', 'conductors'], 'must be one conductor (this model is single-mode; fitFdMultiLine in fdModal.ts fits multiconductor lines mode by mode)', `${section.n} conductors (${section.conductors.join(', ')})`);
   if (!(lengthM > 0) || !Number.isFinite(lengthM)) throw badInput(['fdLine', 'lengthM'], 'must be a positive length', `${lengthM} m`);
 }
 

@@ -57,6 +57,8 @@ export const scenarioSchema = {
           impedance: quantity('resistance', '50ohm'),
           velocity: { description: 'a speed ("2e8m/s") or a fraction of light speed ("0.66c")', oneOf: [{ type: 'number' }, { type: 'string' }] },
           section: { type: 'object', description: 'cross-section geometry, see the lines package' },
+          model: { enum: ['high-frequency', 'frequency-dependent'], default: 'high-frequency', description: 'time-domain model of a line given by a section: its high-frequency L and C, or fitted Yc and propagation function per mode (recursive convolution)' },
+          modalFrequency: { ...quantity('frequency', '100kHz'), description: 'frequency of the constant modal transformation of a multiconductor frequency-dependent line; default v / (4 length) of its slowest mode' },
           fdtd: {
             type: 'object',
             additionalProperties: false,
