@@ -132,6 +132,12 @@ function earthCorrection(earth: EarthInput, hi: number, hj: number, x: number, f
   return earth.model === 'complex-depth' ? complexDepthEarthImpedance(hi, hj, x, fHz, e) : carsonEarthImpedance(hi, hj, x, fHz, e);
 }
 
+/** earthCorrection at complex s (Carson or Deri continued). */
+function earthCorrectionS(earth: EarthInput, hi: number, hj: number, x: number, s: Complex): Complex {
+  const e = { resistivityOhmM: earth.resistivityOhmM, relPermittivity: earth.relPermittivity };
+  return earth.model === 'complex-depth' ? complexDepthEarthImpedanceS(hi, hj, x, s, e) : carsonEarthImpedanceS(hi, hj, x, s, e);
+}
+
 function earthLabel(g: EarthInput): string {
   return `lossy earth (${g.resistivityOhmM} ohm*m${g.relPermittivity ? `, er ${g.relPermittivity}` : ''}, ${g.model === 'complex-depth' ? 'complex depth' : 'Carson integral'})`;
 }
@@ -281,12 +287,11 @@ function wiresModel(s: ResolvedWires): Model {
     const zi = signal.map((i) => internalS(s.wires[i], sc));
     const dz = new Array<Complex>(n * n).fill({ re: 0, im: 0 });
     if (earth) {
-      const e = { resistivityOhmM: earth.resistivityOhmM, relPermittivity: earth.relPermittivity };
       for (let a = 0; a < n; a++) {
         for (let b = a; b < n; b++) {
           const wa = s.wires[signal[a]];
           const wb = s.wires[signal[b]];
-          const z = earth.model === 'complex-depth' ? complexDepthEarthImpedanceS(wa.y, wb.y, wa.x - wb.x, sc, e) : carsonEarthImpedanceS(wa.y, wb.y, wa.x - wb.x, sc, e);
+          const z = earthCorrectionS(earth, wa.y, wb.y, wa.x - wb.x, sc);
           dz[a * n + b] = z;
           dz[b * n + a] = z;
         }
@@ -424,10 +429,7 @@ function coaxModel(s: ResolvedCoax): Model {
     const zs = shieldZS(sc);
     const zc = cadd(innerZS(sc), zs.surf);
     let zsh = zs.surf;
-    if (earth) {
-      const e = { resistivityOhmM: earth.resistivityOhmM, relPermittivity: earth.relPermittivity };
-      zsh = cadd(zsh, earth.model === 'complex-depth' ? complexDepthEarthImpedanceS(h, h, 0, sc, e) : carsonEarthImpedanceS(h, h, 0, sc, e));
-    }
+    if (earth) zsh = cadd(zsh, earthCorrectionS(earth, h, h, 0, sc));
     const zt = zs.transfer;
     const zList = [csub(cadd(zc, zsh), cscale(zt, 2)), csub(zsh, zt), csub(zsh, zt), zsh];
     // Y = s [[cc, -cc], [-cc, cc + cs]], cc = cUnit eps(s), cs = 1 / (air + k / eps_jacket(s)).

@@ -327,16 +327,7 @@ function responseForPeriod(net: SpectralNetwork, outs: Reader[], times: number[]
   const values = outs.map((_, i) => {
     const v = new Float64Array(times.length);
     times.forEach((t, q) => {
-      // sum_k c_k e^{j k dw t} by a rotation recurrence, re-anchored every 64 terms.
-      let s = 0;
-      const cr = Math.cos(dw * t), ci = Math.sin(dw * t);
-      let er = 1, ei = 0;
-      for (let k = 1; k <= K; k++) {
-        if ((k & 63) === 0) { er = Math.cos(k * dw * t); ei = Math.sin(k * dw * t); } else {
-          const nr = er * cr - ei * ci; ei = er * ci + ei * cr; er = nr;
-        }
-        s += cRe[i * (K + 1) + k] * er - cIm[i * (K + 1) + k] * ei;
-      }
+      const s = seriesSum(cRe, cIm, i * (K + 1), K, dw, t);
       const x = t / tau;
       const r = -Math.expm1(-x) - Math.exp(-x) * (x + (x * x) / 2 + (x * x * x) / 6);
       v[q] = yInf[i] * r + (yRem0[i] + 2 * s) / periodS;
@@ -344,6 +335,23 @@ function responseForPeriod(net: SpectralNetwork, outs: Reader[], times: number[]
     return v;
   });
   return { values, points: K + 1 };
+}
+
+/**
+ * Re sum_{k=1..K} c_k e^{j k dw t} over the coefficients at base + k, by a rotation recurrence
+ * re-anchored every 64 terms (both methods share it).
+ */
+function seriesSum(cRe: Float64Array, cIm: Float64Array, base: number, K: number, dw: number, t: number): number {
+  let s = 0;
+  const cr = Math.cos(dw * t), ci = Math.sin(dw * t);
+  let er = 1, ei = 0;
+  for (let k = 1; k <= K; k++) {
+    if ((k & 63) === 0) { er = Math.cos(k * dw * t); ei = Math.sin(k * dw * t); } else {
+      const nr = er * cr - ei * ci; ei = er * ci + ei * cr; er = nr;
+    }
+    s += cRe[base + k] * er - cIm[base + k] * ei;
+  }
+  return s;
 }
 
 const WINDOWS: readonly TimeWindow[] = ['tukey', 'hann', 'lanczos', 'none'];
@@ -394,16 +402,7 @@ function responseLaplace(net: SpectralNetwork, outs: Reader[], times: number[], 
   const values = outs.map((_, i) => {
     const v = new Float64Array(times.length);
     times.forEach((t, q) => {
-      // sum_k c_k e^{j k dw t} by a rotation recurrence, re-anchored every 64 terms.
-      let s = 0;
-      const cr = Math.cos(dw * t), ci = Math.sin(dw * t);
-      let er = 1, ei = 0;
-      for (let k = 1; k <= K; k++) {
-        if ((k & 63) === 0) { er = Math.cos(k * dw * t); ei = Math.sin(k * dw * t); } else {
-          const nr = er * cr - ei * ci; ei = er * ci + ei * cr; er = nr;
-        }
-        s += cRe[i * (K + 1) + k] * er - cIm[i * (K + 1) + k] * ei;
-      }
+      const s = seriesSum(cRe, cIm, i * (K + 1), K, dw, t);
       v[q] = (Math.exp(sigma * t) * (cRe[i * (K + 1)] + 2 * s)) / periodS;
     });
     return v;
