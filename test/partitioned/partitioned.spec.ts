@@ -1,7 +1,8 @@
 // Invariance: a run partitioned over worker threads equals the single-thread run bit for bit
 // (DESIGN.md, "Parallelism and scale"): every junction does the same arithmetic in the same order,
 // only on another thread. The network mixes one- and two-conductor lines, reactive loads, a timed
-// switch and a nonlinear diode, with fractional delays.
+// switch and a nonlinear diode, with fractional delays, a lossy line (FDTD segment) and a
+// frequency-dependent coax.
 import { describe, expect, it } from 'vitest';
 import { compileScenario, junctionCost, partitionNetwork, resolveScenarioText, runPartitioned, runScenario, type Partition } from '@skein/core';
 import { standardRegistry } from '../support/run.ts';
@@ -13,9 +14,18 @@ function chain(n: number): string {
     lines.push(`  l${i}: { from: J${i}, to: J${i + 1}, length: ${(1 + (i % 5) * 0.37).toFixed(2)}m, impedance: ${50 + (i % 7) * 10}ohm, velocity: 2e8m/s }`);
   }
   lines.push(`  pair: { from: J${Math.floor(n / 2)}, to: K, length: 1.3m, conductors: [a, b], inductance: [[0.9uH/m, 0.2uH/m], [0.2uH/m, 0.9uH/m]], capacitance: [[12pF/m, -2pF/m], [-2pF/m, 12pF/m]] }`);
+  // Long chains also carry a lossy branch (an FDTD segment) and a frequency-dependent coax, each
+  // stepped whole by the thread of its z = 0 end.
+  const lossy = n >= 35;
+  if (lossy) {
+    lines.push('  lossy: { from: J5, to: F, length: 1.5m, impedance: 70ohm, velocity: 2e8m/s, resistance: 2ohm/m, conductance: 1mS/m }');
+    lines.push('  coax: { from: J3, to: Q, length: 3m, model: frequency-dependent, section: { kind: coax, innerRadius: 0.405mm, shieldInnerRadius: 1.475mm, dielectric: { relPermittivity: 2.25, lossTangent: 2e-4 } } }');
+  }
   for (let i = 0; i <= n; i++) {
     const on = [i > 0 ? `l${i - 1}` : undefined, i < n ? `l${i}` : undefined].filter(Boolean) as string[];
     if (i === Math.floor(n / 2)) on.push('pair.a');
+    if (lossy && i === 5) on.push('lossy');
+    if (lossy && i === 3) on.push('coax');
     const parts: string[] = [];
     if (i === 0) parts.push('gen: { source: trapezoid, between: [m, ref], amplitude: 5, rise: 1ns, width: 10ns, fall: 2ns, resistance: 25ohm }');
     if (i % 6 === 3) parts.push(`R${i}: { load: resistor, between: [m, ref], resistance: ${200 + i}ohm }`);
@@ -26,6 +36,10 @@ function chain(n: number): string {
     const extra = i === Math.floor(n / 2) ? ', mb: [pair.b]' : '';
     if (i === Math.floor(n / 2)) parts.push('Rmb: { load: resistor, between: [mb, ref], resistance: 100ohm }');
     junctions.push(`  J${i}:\n    nodes: { m: [${on.join(', ')}]${extra} }\n    parts: { ${parts.join(', ')} }`);
+  }
+  if (lossy) {
+    junctions.push('  F:\n    nodes: { f: [lossy] }\n    parts: { Rf: { load: resistor, between: [f, ref], resistance: 30ohm } }');
+    junctions.push('  Q:\n    nodes: { q: [coax] }\n    parts: { Rq: { load: resistor, between: [q, ref], resistance: 500ohm } }');
   }
   junctions.push('  K:\n    nodes: { a: [pair.a], b: [pair.b] }\n    parts: { Ka: { load: resistor, between: [a, ref], resistance: 150ohm }, Kb: { load: capacitor, between: [b, ref], capacitance: 5pF } }');
   return `skein: 1
@@ -44,7 +58,10 @@ probes:
   pt: { probe: line-point, line: l3, position: 0.4m }
   diode: { probe: part, part: D9 }
   ledger: { probe: energy-ledger }
-`;
+${n >= 35 ? `  ploss: { probe: line-point, line: lossy, position: 0.7m }
+  icoax: { probe: line-end-current, line: coax, end: to }
+  vq: { probe: node-voltage, node: Q.q }
+` : ''}`;
 }
 
 /** A tree of four-conductor lines with node-voltage probes only (no probe reads waves). */
@@ -124,7 +141,7 @@ describe('runPartitioned', () => {
     expect(differing).toBe(0);
   });
 
-  it('equals the single-thread run bit for bit', async () => {
+  it('equals the single-thread run bit for bit, with lossless, lossy (FDTD), frequency-dependent and nonlinear parts', async () => {
     const registry = await standardRegistry();
     const text = chain(40);
     const serial = await runScenario(resolveScenarioText(text, { registry, file: 'chain.yaml' }), { registry });
@@ -149,6 +166,15 @@ describe('runPartitioned', () => {
     expect(serial.outputs["part:D9"]).toBeDefined();
     expect(JSON.stringify(parallel.outputs["part:D9"])).toBe(JSON.stringify(serial.outputs["part:D9"]));
     expect(parallel.ledger).toEqual(serial.ledger);
+    // The lossy and frequency-dependent lines carried the pulse and lost energy.
+    expect(serial.ledger!.lostJ).toBeGreaterThan(0);
+    for (const name of ['ploss.v.w', 'icoax.i.inner', 'vq.v']) {
+      expect(serial.traceNames, serial.traceNames.join(' ')).toContain(name);
+      const tr = serial.traces.pick(serial.traceNames.indexOf(name), null);
+      let m = 0;
+      for (let i = 0; i < tr.shape[0]; i++) m = Math.max(m, Math.abs(tr.get(i)));
+      expect(m, name).toBeGreaterThan(name.includes('.i.') ? 1e-4 : 0.01);
+    }
   });
 
   it('uses fewer threads than asked when a block of work is too small, and says why', async () => {

@@ -61,7 +61,8 @@ describe('a line of two stretches', () => {
     const l = r.ledger!;
     expect(l.lostJ).toBe(0);
     expect(Math.abs(l.residualJ) / l.deliveredJ).toBeLessThan(1e-6);
-    // Asked for two threads, the run stays on one (FDTD segments are not partitioned) and gives
+    // Asked for two threads, the run stays on one (its FDTD segment joins its only junctions and
+    // one thread steps it whole) and gives
     // the same samples, bit for bit.
     const registry = await standardRegistry();
     const p = await runPartitioned({ text: TWO_STRETCHES, file: 'twoStretches.yaml' }, { registry, threads: 2 });

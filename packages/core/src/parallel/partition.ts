@@ -46,15 +46,44 @@ export function breadthFirstOrder(plan: Plan): Int32Array {
   return order;
 }
 
+/**
+ * Whole-step delay that line i allows between its two ends' threads: its shortest mode delay, or
+ * 0 for an FDTD segment or a frequency-dependent line, which is stepped whole (both ends and its
+ * state) by one thread and so never crosses.
+ */
+function crossingDelay(plan: Plan, i: number): number {
+  let d = Infinity;
+  for (let m = 0; m < plan.modal[i].n; m++) {
+    const dl = plan.delays[plan.lineModeOff[i] + m];
+    if (dl.fdtd) return 0;
+    d = Math.min(d, dl.k);
+  }
+  return d;
+}
+
 function minCrossingDelay(plan: Plan, owner: Int32Array): { K: number; crossing: number } {
   let K = plan.nSteps + 1;
   let crossing = 0;
   plan.scenario.lines.forEach((l, i) => {
     if (owner[l.from] === owner[l.to]) return;
     crossing++;
-    for (let m = 0; m < plan.modal[i].n; m++) K = Math.min(K, plan.delays[plan.lineModeOff[i] + m].k);
+    K = Math.min(K, crossingDelay(plan, i));
   });
   return { K, crossing };
+}
+
+/**
+ * Stepping cost per junction (junctionCost), with each FDTD segment's leapfrog (about 4 n^2
+ * multiply-adds per cell) and each frequency-dependent line's convolutions (about 40 per mode)
+ * charged to the junction at its z = 0 end, whose thread steps it.
+ */
+export function stepCosts(plan: Plan): Float64Array {
+  const c = new Float64Array(plan.nJunctions);
+  for (let j = 0; j < plan.nJunctions; j++) c[j] = junctionCost(plan, j);
+  const lines = plan.scenario.lines;
+  for (const f of plan.fdtd) c[lines[f.line].from] += 4 * f.cells * f.n * f.n;
+  for (const f of plan.fdLines) c[lines[f.line].from] += 40 * f.n;
+  return c;
 }
 
 /** How the cut between threads is chosen. */
@@ -92,7 +121,8 @@ export function partitionNetwork(plan: Plan, threads: number, options: Partition
   const nJ = plan.nJunctions;
   const order = breadthFirstOrder(plan);
   const prefix = new Float64Array(nJ + 1);
-  for (let i = 0; i < nJ; i++) prefix[i + 1] = prefix[i] + junctionCost(plan, order[i]);
+  const costs = stepCosts(plan);
+  for (let i = 0; i < nJ; i++) prefix[i + 1] = prefix[i] + costs[order[i]];
   const total = prefix[nJ];
   // Seconds per unit of cost, from the per-port estimate.
   const unitS = ((options.portCostS ?? 10e-9) * Math.max(1, plan.nPorts)) / Math.max(1, total);
@@ -118,8 +148,10 @@ export function partitionNetwork(plan: Plan, threads: number, options: Partition
       let d = Infinity;
       plan.scenario.lines.forEach((l, i) => {
         if ((pos[l.from] < c) === (pos[l.to] < c)) return;
-        for (let m = 0; m < plan.modal[i].n; m++) d = Math.min(d, plan.delays[plan.lineModeOff[i] + m].k);
+        d = Math.min(d, crossingDelay(plan, i));
       });
+      // A cut through a line stepped whole by one thread is not allowed.
+      if (d < 1) continue;
       const meetings = Number.isFinite(d) ? Math.ceil(steps / Math.max(1, d)) : 1;
       const estS = steps * unitS * Math.abs(prefix[c] - target) + meetings * barrierS;
       if (estS < bestS) { bestS = estS; best = c; }

@@ -10,6 +10,8 @@ import { availableParallelism } from 'node:os';
 import { Worker } from 'node:worker_threads';
 import { compileScenario, type Plan } from '../compile/compile.ts';
 import { widenRings } from '../compile/rings.ts';
+import { phaseFdtdAfter, phaseFdtdBefore } from '../run/fdtdPhase.ts';
+import { phaseFdAfter, phaseFdBefore } from '../run/fdPhase.ts';
 import { SkeinError } from '../errors.ts';
 import type { NodeHandle, PartHandle, PointHandle, PortHandle, ProbeSetupContext, StructuredOutput, TraceHandle } from '../plugins/api.ts';
 import type { PluginRegistry } from '../plugins/registry.ts';
@@ -64,11 +66,14 @@ export function decidePartition(plan: Plan, opts: PartitionedOptions): { partiti
   const minWork = opts.minBlockWorkS ?? 1e-3;
   const maxHist = opts.maxHistoryBytes ?? 256 * 1024 * 1024;
   if (asked === 1) return { partition: undefined, decision: { asked, used: 1, K: 0, crossing: 0, work: [plan.nPorts], reason: 'one thread asked' } };
-  if (plan.fdtd.length > 0 || plan.fdLines.length > 0) return { partition: undefined, decision: { asked, used: 1, K: 0, crossing: 0, work: [plan.nPorts], reason: 'FDTD segments and frequency-dependent lines are not partitioned in this version' } };
   let best: Partition | undefined;
   let reason = '';
   for (let t = Math.min(asked, cores, plan.nJunctions); t >= 2; t--) {
     const p = partitionNetwork(plan, t, { portCostS: portCost });
+    if (p.K < 1) {
+      reason = `every cut for ${t} threads near the balance goes through an FDTD segment or a frequency-dependent line, which one thread steps whole`;
+      continue;
+    }
     const perRow = 8 * 2 * (plan.x.length + plan.slot.length + plan.parts.length);
     const K = Math.max(1, Math.min(p.K, Math.floor(maxHist / Math.max(1, perRow)), plan.nSteps + 1));
     const blockWork = (K * portCost * Math.max(...p.work)) ;
@@ -117,7 +122,7 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
   const plan = firstPlan;
   widenRings(plan, ringExtra);
   const compileS = (performance.now() - t0) / 1000;
-  const driver = partitionedDriver(plan, partition, source, scenario, registry, ringExtra, opts.spinWaitS ?? 2e-3);
+  const driver = partitionedDriver(plan, partition, source, scenario, registry, ringExtra, opts.spinWaitS ?? 2e-3, readsWaves);
   const r = await runPlan(plan, { ...opts, driver }, compileS);
   r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
   return Object.assign(r, { partition: decision });
@@ -154,7 +159,7 @@ async function probesReadWaves(plan: Plan, registry: PluginRegistry): Promise<bo
   return reads;
 }
 
-function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, ringExtra: Int32Array, spinWaitS: number): StepDriver {
+function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, ringExtra: Int32Array, spinWaitS: number, replayLines: boolean): StepDriver {
   // The workers get the resolved scenario (a structured copy costs a fraction of resolving it
   // again) unless it holds functions: sections of lines evaluate R(f), L(f), G(f), C(f) by
   // closures, so such scenarios are resolved again from their source in each worker.
@@ -253,6 +258,15 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
             for (let k = 0; k < varyingLoads.length; k++) {
               const l = varyingLoads[k];
               l.part.g = l.instance.conductanceAt!(tS);
+            }
+            if (replayLines) {
+              // The same updates as the owning worker's, on this thread's copy of the lines'
+              // state, for the probes and the ledger (FDTD/FD slots are this thread's own: the
+              // workers write only their waveform, load and device values to the history).
+              if (p.fdLines.length > 0) phaseFdBefore(p, n);
+              if (p.fdtd.length > 0) phaseFdtdBefore(p);
+              if (p.fdtd.length > 0) phaseFdtdAfter(p);
+              if (p.fdLines.length > 0) phaseFdAfter(p, n);
             }
             io.observe(n, false);
           }

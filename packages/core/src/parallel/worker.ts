@@ -13,6 +13,8 @@ import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts
 import type { ResolvedScenario } from '../model.ts';
 import { acceptNonlinear, phaseNonlinear } from '../run/newton.ts';
 import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSwitches } from '../run/step.ts';
+import { phaseFdtdAfter, phaseFdtdBefore } from '../run/fdtdPhase.ts';
+import { phaseFdAfter, phaseFdBefore } from '../run/fdPhase.ts';
 import { CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow, type SharedBuffers } from './shared.ts';
 
 /** What the main thread sends. */
@@ -95,6 +97,11 @@ async function main(init: WorkerInit): Promise<void> {
     plan.acceptLoads = plan.acceptLoads.filter((p) => own[p.part.junction] === 1);
     plan.varying = plan.varying.filter((v) => own[v.junction] === 1);
     plan.nonlinear = plan.nonlinear.filter((v) => own[v.junction] === 1);
+    // FDTD segments and frequency-dependent lines never cross threads (partition.ts): the thread
+    // of a line's z = 0 end steps the whole line.
+    const lines = plan.scenario.lines;
+    plan.fdtd = plan.fdtd.filter((f) => own[lines[f.line].from] === 1);
+    plan.fdLines = plan.fdLines.filter((f) => own[lines[f.line].from] === 1);
     // Parts of other workers are neither stepped nor needed here (computeParts writes by part index).
     const allParts = plan.parts;
     plan.parts = plan.parts.filter((p) => own[p.part.junction] === 1);
@@ -140,8 +147,12 @@ async function main(init: WorkerInit): Promise<void> {
         const hl = plan.historyLoads;
         for (let k = 0; k < hl.length; k++) plan.slot[hl[k].slot] = (hl[k].load as { history: () => number }).history();
         if (plan.varying.length > 0) phaseSwitches(plan, tS);
+        if (plan.fdLines.length > 0) phaseFdBefore(plan, n);
+        if (plan.fdtd.length > 0) phaseFdtdBefore(plan);
         phaseJunctions(plan, ownedRuns, n);
         if (plan.nonlinear.length > 0) phaseNonlinear(plan, n, tS);
+        if (plan.fdtd.length > 0) phaseFdtdAfter(plan);
+        if (plan.fdLines.length > 0) phaseFdAfter(plan, n);
         // Branch values are needed here by accept hooks only (the main thread's replay computes its own).
         if (plan.acceptLoads.length > 0) computeParts(plan, partV, partI, partU);
         acceptParts(plan, tS, partV, partI);
