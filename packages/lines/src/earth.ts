@@ -27,14 +27,6 @@ export interface EarthParams {
   relPermittivity?: number;
 }
 
-function gammaSquared(fHz: number, earth: EarthParams): Complex {
-  const omega = 2 * Math.PI * fHz;
-  const sigma = 1 / earth.resistivityOhmM;
-  const eps = (earth.relPermittivity ?? 0) * EPS0;
-  // j omega mu0 (sigma + j omega eps) = -omega^2 mu0 eps + j omega mu0 sigma
-  return { re: -omega * omega * MU0 * eps, im: omega * MU0 * sigma };
-}
-
 /**
  * Carson's earth-return correction dZ_ij by numerical integration of Carson's integral.
  *
@@ -47,36 +39,7 @@ function gammaSquared(fHz: number, earth: EarthParams): Complex {
  * @example carsonEarthImpedance(10, 10, 0, 50, { resistivityOhmM: 100 }).re // ≈ 4.8e-5 ohm/m (close to omega mu0/8 = 4.93e-5)
  */
 export function carsonEarthImpedance(hiM: number, hjM: number, xM: number, fHz: number, earth: EarthParams): Complex {
-  if (fHz === 0) return { re: 0, im: 0 };
-  const omega = 2 * Math.PI * fHz;
-  const g2 = gammaSquared(fHz, earth);
-  const H = hiM + hjM;
-  const x = Math.abs(xM);
-  // Substitute l = u / H: integral = (1/H) int_0^inf e^{-u} cos(x u / H) / (u/H + sqrt(u^2/H^2 + g2)) du
-  //                                = int_0^inf e^{-u} cos(x u/H) / (u + sqrt(u^2 + g2 H^2)) du
-  const g2h = { re: g2.re * H * H, im: g2.im * H * H };
-  const xr = x / H;
-  const f = (u: number, out: Float64Array): void => {
-    const s = csqrt({ re: u * u + g2h.re, im: g2h.im });
-    const dr = u + s.re;
-    const di = s.im;
-    const w = (Math.exp(-u) * Math.cos(xr * u)) / (dr * dr + di * di);
-    out[0] = w * dr;
-    out[1] = -w * di;
-  };
-  // Split where the integrand changes character: near u = |gamma| H and at the decay scale.
-  const gh = Math.sqrt(Math.hypot(g2h.re, g2h.im));
-  const breaks = [0, ...[gh / 4, gh, 4 * gh].filter((b) => b > 0 && b < 45), 45].sort((a, b) => a - b);
-  let jr = 0;
-  let ji = 0;
-  for (let i = 0; i + 1 < breaks.length; i++) {
-    const [r, im] = integrateComplex(f, breaks[i], breaks[i + 1], 1e-11, 1e-16);
-    jr += r;
-    ji += im;
-  }
-  // dZ = j omega mu0/pi * J
-  const c = (omega * MU0) / Math.PI;
-  return { re: -c * ji, im: c * jr };
+  return carsonEarthImpedanceS(hiM, hjM, xM, { re: 0, im: 2 * Math.PI * fHz }, earth);
 }
 
 /**
@@ -91,18 +54,10 @@ export function carsonEarthImpedance(hiM: number, hjM: number, xM: number, fHz: 
  * @example complexDepthEarthImpedance(10, 10, 0, 50, { resistivityOhmM: 100 }).re // ≈ 4.8e-5 ohm/m
  */
 export function complexDepthEarthImpedance(hiM: number, hjM: number, xM: number, fHz: number, earth: EarthParams): Complex {
-  if (fHz === 0) return { re: 0, im: 0 };
-  const omega = 2 * Math.PI * fHz;
-  const p = cdiv({ re: 1, im: 0 }, csqrt(gammaSquared(fHz, earth)));
-  const H = hiM + hjM;
-  const a = cadd({ re: H, im: 0 }, { re: 2 * p.re, im: 2 * p.im });
-  const num = cadd(cmul(a, a), { re: xM * xM, im: 0 });
-  const lg = clog(cdiv(num, { re: H * H + xM * xM, im: 0 }));
-  const c = (omega * MU0) / (4 * Math.PI);
-  return { re: -c * lg.im, im: c * lg.re };
+  return complexDepthEarthImpedanceS(hiM, hjM, xM, { re: 0, im: 2 * Math.PI * fHz }, earth);
 }
 
-/** gamma^2 = s mu0 (sigma_e + s eps_e) at complex s (at s = j omega the form of gammaSquared). */
+/** gamma^2 = s mu0 (sigma_e + s eps_e) at complex s (at s = j omega: j omega mu0 (sigma_e + j omega eps_e)). */
 function gammaSquaredS(s: Complex, earth: EarthParams): Complex {
   const sigma = 1 / earth.resistivityOhmM;
   const eps = (earth.relPermittivity ?? 0) * EPS0;
@@ -127,6 +82,7 @@ export function carsonEarthImpedanceS(hiM: number, hjM: number, xM: number, s: C
   const g2 = gammaSquaredS(s, earth);
   const H = hiM + hjM;
   const x = Math.abs(xM);
+  // Substitute l = u / H: integral = int_0^inf e^{-u} cos(x u/H) / (u + sqrt(u^2 + gamma^2 H^2)) du
   const g2h = { re: g2.re * H * H, im: g2.im * H * H };
   const xr = x / H;
   const f = (u: number, out: Float64Array): void => {
@@ -137,6 +93,7 @@ export function carsonEarthImpedanceS(hiM: number, hjM: number, xM: number, s: C
     out[0] = w * dr;
     out[1] = -w * di;
   };
+  // Split where the integrand changes character: near u = |gamma| H and at the decay scale.
   const gh = Math.sqrt(Math.hypot(g2h.re, g2h.im));
   const breaks = [0, ...[gh / 4, gh, 4 * gh].filter((b) => b > 0 && b < 45), 45].sort((a, b) => a - b);
   let jr = 0;
