@@ -6,6 +6,7 @@
 import { LuDecomposition, Matrix, inverse } from 'ml-matrix';
 import { badInput, bug, PluginError, singularJunction } from '../errors.ts';
 import { decomposeLine, type ModalLine } from '../line/modal.ts';
+import { ringLength } from './rings.ts';
 import { couplingOverBand, type ModalCoupling } from '../line/fdModal.ts';
 import { createFdtdLine, type FdtdLine } from './fdtd.ts';
 import { createFdtdProfileLine, profileCells, type CellProfile } from './fdtdProfile.ts';
@@ -178,22 +179,11 @@ export interface CompileOptions {
   registry: PluginRegistry;
   /** Collects warnings; default: into plan.warnings only. */
   onWarning?: (message: string) => void;
-  /**
-   * Extra ring-buffer history in steps for every line (default 0), for a caller that reads waves
-   * behind the stepping. Partitioned runs widen the rings per line after compile (rings.ts).
-   */
-  ringSlackSteps?: number;
 }
 
 const MIN_DELAY_STEPS = 1;
 /** Neglected modal coupling of a constant transformation above which compile warns (line/fdModal.ts). */
 export const FD_COUPLING_WARN = 0.01;
-
-function nextPow2(x: number): number {
-  let p = 1;
-  while (p < x) p <<= 1;
-  return p;
-}
 
 /**
  * Compiles a resolved scenario: modal decomposition, time step, delays, junction matrices, plugin
@@ -355,7 +345,8 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       const q = lineModeOff[i] + m;
       modeK[q] = k;
       modeF[q] = f;
-      const len = nextPow2(k + 2 + (options.ringSlackSteps ?? 0));
+      // Ring length: rings.ts (partitioned runs widen it per line after compile).
+      const len = ringLength(k, 0);
       ringMask[q] = len - 1;
       fwdOff[q] = waveLen;
       waveLen += len;

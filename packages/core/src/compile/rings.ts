@@ -10,15 +10,15 @@
  */
 import type { Plan } from './compile.ts';
 
-function nextPow2(x: number): number {
+/** Samples a mode of whole-step delay k keeps with `extra` steps more history: nextPow2(k + 2 + extra). */
+export function ringLength(k: number, extra: number): number {
   let p = 1;
-  while (p < x) p <<= 1;
+  while (p < k + 2 + extra) p <<= 1;
   return p;
 }
 
 /**
- * Re-lays the rings with `extra[line]` more steps of history per line (the plan's own slack,
- * if any, is replaced) and points every port at the new offsets. Deterministic: the same plan
+ * Re-lays the rings with `extra[line]` more steps of history per line and points every port at the new offsets. Deterministic: the same plan
  * and `extra` give the same layout on every thread. The plan's waves are reset to zero.
  * @param extra steps of extra history per line index.
  */
@@ -27,7 +27,7 @@ export function widenRings(plan: Plan, extra: Int32Array): void {
   let waveLen = 0;
   for (let i = 0; i < nLines; i++) {
     for (let q = plan.lineModeOff[i]; q < plan.lineModeOff[i + 1]; q++) {
-      const len = nextPow2(plan.delays[q].k + 2 + extra[i]);
+      const len = ringLength(plan.delays[q].k, extra[i]);
       plan.ringMask[q] = len - 1;
       plan.fwdOff[q] = waveLen;
       waveLen += len;

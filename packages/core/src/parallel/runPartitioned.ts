@@ -102,10 +102,10 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
     : resolveScenarioData(source.data, { registry, file: source.file });
   const t0 = performance.now();
   const scenario = source.scenario ?? resolve();
-  const firstPlan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
-  const { partition, decision } = decidePartition(firstPlan, opts);
+  const plan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
+  const { partition, decision } = decidePartition(plan, opts);
   if (!partition) {
-    const r = await runPlan(firstPlan, opts, (performance.now() - t0) / 1000);
+    const r = await runPlan(plan, opts, (performance.now() - t0) / 1000);
     if (decision.asked > 1) r.warnings.push(`ran on 1 thread of ${decision.asked} asked: ${decision.reason}`);
     return Object.assign(r, { partition: decision });
   }
@@ -114,12 +114,11 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
   // K - 1 steps ahead of its reader); the replay one block behind the workers reads waves from
   // the rings only for probes that ask for line ends, line points or the ledger, and only then
   // do all rings need two blocks more (which costs memory and, beyond the cache, time).
-  const readsWaves = await probesReadWaves(firstPlan, registry);
+  const readsWaves = await probesReadWaves(plan, registry);
   const ringExtra = new Int32Array(scenario.lines.length);
   scenario.lines.forEach((l, i) => {
     ringExtra[i] = readsWaves ? 2 * K : partition.owner[l.from] !== partition.owner[l.to] ? K : 0;
   });
-  const plan = firstPlan;
   widenRings(plan, ringExtra);
   const compileS = (performance.now() - t0) / 1000;
   const driver = partitionedDriver(plan, partition, source, scenario, registry, ringExtra, opts.spinWaitS ?? 2e-3, readsWaves);
@@ -264,8 +263,10 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
               // state, for the probes and the ledger (FDTD/FD slots are this thread's own: the
               // workers write only their waveform, load and device values to the history).
               if (p.fdLines.length > 0) phaseFdBefore(p, n);
-              if (p.fdtd.length > 0) phaseFdtdBefore(p);
-              if (p.fdtd.length > 0) phaseFdtdAfter(p);
+              if (p.fdtd.length > 0) {
+                phaseFdtdBefore(p);
+                phaseFdtdAfter(p);
+              }
               if (p.fdLines.length > 0) phaseFdAfter(p, n);
             }
             io.observe(n, false);

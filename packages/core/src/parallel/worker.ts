@@ -12,7 +12,7 @@ import type { StructuredOutput } from '../plugins/api.ts';
 import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts';
 import type { ResolvedScenario } from '../model.ts';
 import { acceptNonlinear, phaseNonlinear } from '../run/newton.ts';
-import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSwitches } from '../run/step.ts';
+import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSources, phaseSwitches } from '../run/step.ts';
 import { phaseFdtdAfter, phaseFdtdBefore } from '../run/fdtdPhase.ts';
 import { phaseFdAfter, phaseFdBefore } from '../run/fdPhase.ts';
 import { CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow, type SharedBuffers } from './shared.ts';
@@ -142,10 +142,7 @@ async function main(init: WorkerInit): Promise<void> {
       const end = Math.min((b + 1) * K, plan.nSteps + 1);
       for (let n = b * K; n < end; n++) {
         const tS = n * plan.dtS;
-        const wf = plan.waveforms;
-        for (let w = 0; w < wf.length; w++) plan.slot[wf[w].slot] = wf[w].instance.value(tS);
-        const hl = plan.historyLoads;
-        for (let k = 0; k < hl.length; k++) plan.slot[hl[k].slot] = (hl[k].load as { history: () => number }).history();
+        phaseSources(plan, tS);
         if (plan.varying.length > 0) phaseSwitches(plan, tS);
         if (plan.fdLines.length > 0) phaseFdBefore(plan, n);
         if (plan.fdtd.length > 0) phaseFdtdBefore(plan);
@@ -182,7 +179,7 @@ async function main(init: WorkerInit): Promise<void> {
         warnings.push(`plugin ${p.part.type}, hook finish: ${(e as Error).message}`);
       }
     }
-    parentPort!.postMessage({ type: 'finished', outputs, warnings, computeS: computeMs / 1000, waitS: waitMs / 1000, startS: startMs / 1000, blocks: nBlocks });
+    parentPort!.postMessage({ type: 'finished', outputs, warnings, computeS: computeMs / 1000, waitS: waitMs / 1000, startS: startMs / 1000 });
   } catch (e) {
     const err = e as SkeinError;
     parentPort!.postMessage({ type: 'error', message: err.message, code: err.code, details: err.details, blocksDone });

@@ -1,13 +1,7 @@
 // Small compiled networks for the blocked-kernel tests: core's own compile step on scenario text,
 // with the rings re-laid out large enough for nB steps per visit (nextPow2(k + nB + 1) slots).
-import { compileScenario, resolveScenarioText, type Plan } from '../../index.ts';
+import { compileScenario, resolveScenarioText, widenRings, type Plan } from '../../index.ts';
 import { testRegistry } from '../../__tests__/fixtures.ts';
-
-function nextPow2(x: number): number {
-  let p = 1;
-  while (p < x) p <<= 1;
-  return p;
-}
 
 /**
  * One-conductor star-and-chain network: delays 6..12 steps (some fractional), resistors, a step
@@ -75,25 +69,8 @@ export interface BlockedPlan {
 export async function compileWide(text: string, maxBlock: number): Promise<BlockedPlan> {
   const registry = testRegistry();
   const plan = await compileScenario(resolveScenarioText(text, { registry, file: 'blocked.yaml' }), { registry });
-  const remap = new Map<number, { off: number; mask: number }>();
-  let len = 0;
-  const nModes = plan.ringMask.length;
-  for (let q = 0; q < nModes; q++) {
-    const size = nextPow2(plan.delays[q].k + maxBlock + 1);
-    remap.set(plan.fwdOff[q], { off: len, mask: size - 1 });
-    len += size;
-    remap.set(plan.bwdOff[q], { off: len, mask: size - 1 });
-    len += size;
-  }
-  for (let p = 0; p < plan.nPorts; p++) {
-    const i = remap.get(plan.pIn[p])!;
-    const o = remap.get(plan.pOut[p])!;
-    plan.pIn[p] = i.off;
-    plan.pInMask[p] = i.mask;
-    plan.pOut[p] = o.off;
-    plan.pOutMask[p] = o.mask;
-  }
-  plan.wave = new Float64Array(len);
+  // nB steps per visit need nB - 1 more steps of history than one step does (rings.ts).
+  widenRings(plan, new Int32Array(plan.scenario.lines.length).fill(maxBlock - 1));
   const kMin = Math.min(...plan.delays.map((d) => d.k));
   return { plan, kMin };
 }
