@@ -10,32 +10,7 @@ import { timeResponse } from '@skein/spectral';
 import { worstRelativeToPeak } from '../support/compare.ts';
 import { runText, standardRegistry } from '../support/run.ts';
 
-const COAX = `{ kind: coax, innerRadius: 0.405mm, shieldInnerRadius: 1.475mm, dielectric: { relPermittivity: 2.25, lossTangent: 0.002, model: djordjevic-sarkar } }`;
-
-const NET = `
-skein: 1
-time: { end: 1.2us, step: 0.5ns }
-lines:
-  feed: { from: src, to: tee, length: 60m, section: ${COAX}, model: frequency-dependent }
-  drop: { from: tee, to: rx, length: 25m, section: ${COAX}, model: frequency-dependent }
-  stub: { from: tee, to: cap, length: 3m, impedance: 100ohm, velocity: 0.7c }
-junctions:
-  src:
-    nodes: { s: [feed] }
-    parts: { gen: { source: trapezoid, between: [s, ref], amplitude: 2, delay: 5ns, rise: 5ns, width: 40ns, fall: 5ns, resistance: 50ohm } }
-  tee:
-    nodes: { t: [feed, drop, stub] }
-  rx:
-    nodes: { r: [drop] }
-    parts: { R: { load: resistor, between: [r, ref], resistance: 75ohm } }
-  cap:
-    nodes: { c: [stub] }
-    parts: { C: { load: capacitor, between: [c, ref], capacitance: 10pF } }
-probes:
-  vs: { probe: node-voltage, node: src.s }
-  vt: { probe: node-voltage, node: tee.t }
-  vr: { probe: node-voltage, node: rx.r }
-`;
+import { NET } from './coaxNetwork.ts';
 
 describe('transient vs spectral, numerical Laplace transform', () => {
   it('agrees with the transient solver within 1 % of the peak and with the Fourier method within 1e-6', async () => {
