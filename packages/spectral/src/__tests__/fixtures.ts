@@ -128,3 +128,20 @@ export function spectralRegistry(): PluginRegistry {
   for (const p of [stepSource, rectSource, edgeSource, gaussianSource, resistorLoad, axisResistorLoad, capacitorLoad, bareLoad, nodeProbe]) r.register(p, 'spectral/__tests__/fixtures.ts');
   return r;
 }
+
+/** A step behind 50 ohm into a matched 50 ohm line ending in 100 pF (REFERENCES.md, capacitive load after a matched source). */
+export const CAPACITIVE_TERMINATION = `
+skein: 1
+time: { end: 40ns }
+lines:
+  tl: { from: S, to: L, length: 2m, impedance: 50ohm, velocity: 2e8m/s }
+junctions:
+  S:
+    nodes: { s: [tl] }
+    parts:
+      gen: { source: step, between: [s, ref], amplitude: 1, resistance: 50ohm }
+  L:
+    nodes: { l: [tl] }
+    parts:
+      CL: { load: capacitor, between: [l, ref], capacitance: 100pF }
+`;

@@ -5,7 +5,7 @@ import { describe, expect, it } from 'vitest';
 import erfc from '@stdlib/math-base-special-erfc';
 import { resolveScenarioText } from '@skein/core';
 import { timeResponse } from '../index.ts';
-import { spectralRegistry } from './fixtures.ts';
+import { CAPACITIVE_TERMINATION, spectralRegistry } from './fixtures.ts';
 
 const reg = spectralRegistry();
 
@@ -110,21 +110,7 @@ describe('timeResponse (numerical Laplace transform)', () => {
   it('gives the charging of a capacitive load after a matched source at every sample away from the kink', async () => {
     // REFERENCES.md: Rs = Z0 = 50 ohm, C = 100 pF, vL = 1 - exp(-(t - T)/(Z0 C)) for t > T = 10 ns,
     // 0 before (classic RC charge; the matched source absorbs the reflection). Every 0.5 ns to 40 ns.
-    const s = resolveScenarioText(`
-skein: 1
-time: { end: 40ns }
-lines:
-  tl: { from: S, to: L, length: 2m, impedance: 50ohm, velocity: 2e8m/s }
-junctions:
-  S:
-    nodes: { s: [tl] }
-    parts:
-      gen: { source: step, between: [s, ref], amplitude: 1, resistance: 50ohm }
-  L:
-    nodes: { l: [tl] }
-    parts:
-      CL: { load: capacitor, between: [l, ref], capacitance: 100pF }
-`, { registry: reg, file: 'cap.yaml' });
+    const s = resolveScenarioText(CAPACITIVE_TERMINATION, { registry: reg, file: 'cap.yaml' });
     const T = 10e-9;
     const times = Array.from({ length: 81 }, (_, i) => i * 0.5e-9).filter((t) => Math.abs(t - T) >= 1e-9);
     const exact = times.map((t) => (t > T ? 1 - Math.exp(-(t - T) / 5e-9) : 0));

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { resolveScenarioText, runScenario } from '@skein/core';
 import { parseOutputSpec as parseSpec, timeResponse } from '../index.ts';
-import { spectralRegistry } from './fixtures.ts';
+import { CAPACITIVE_TERMINATION, spectralRegistry } from './fixtures.ts';
 
 const reg = spectralRegistry();
 
@@ -14,21 +14,7 @@ function maxAbs(a: ArrayLike<number>, b: ArrayLike<number>): number {
 describe('timeResponse', () => {
   it('gives the charging of a capacitive load after a matched source', async () => {
     // REFERENCES.md: Rs = Z0 = 50 ohm, C = 100 pF, vL = 1 - exp(-(t - T)/(Z0 C)) (classic RC charge).
-    const s = resolveScenarioText(`
-skein: 1
-time: { end: 40ns }
-lines:
-  tl: { from: S, to: L, length: 2m, impedance: 50ohm, velocity: 2e8m/s }
-junctions:
-  S:
-    nodes: { s: [tl] }
-    parts:
-      gen: { source: step, between: [s, ref], amplitude: 1, resistance: 50ohm }
-  L:
-    nodes: { l: [tl] }
-    parts:
-      CL: { load: capacitor, between: [l, ref], capacitance: 100pF }
-`, { registry: reg, file: 'cap.yaml' });
+    const s = resolveScenarioText(CAPACITIVE_TERMINATION, { registry: reg, file: 'cap.yaml' });
     const T = 10e-9;
     const times = [T + 1e-9, T + 5e-9, T + 10e-9, T + 25e-9];
     const r = await timeResponse(s, reg, { outputs: [{ kind: 'voltage', node: 'L.l' }], timesS: times, maxFrequencyHz: 20e9 });
