@@ -6,7 +6,7 @@
 import { LuDecomposition, Matrix, inverse } from 'ml-matrix';
 import { badInput, bug, PluginError, singularJunction } from '../errors.ts';
 import { decomposeLine, type ModalLine } from '../line/modal.ts';
-import { ringLength } from './rings.ts';
+import { layRings } from './rings.ts';
 import { couplingOverBand, type ModalCoupling } from '../line/fdModal.ts';
 import { createFdtdLine, type FdtdLine } from './fdtd.ts';
 import { createFdtdProfileLine, profileCells, type CellProfile } from './fdtdProfile.ts';
@@ -324,7 +324,6 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
   const ringMask = new Int32Array(nModes);
   const modeK = new Int32Array(nModes);
   const modeF = new Float64Array(nModes);
-  let waveLen = 0;
   scenario.lines.forEach((l, i) => {
     modal[i].velocities.forEach((v, m) => {
       const d = l.lengthM / v;
@@ -345,13 +344,6 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       const q = lineModeOff[i] + m;
       modeK[q] = k;
       modeF[q] = f;
-      // Ring length: rings.ts (partitioned runs widen it per line after compile).
-      const len = ringLength(k, 0);
-      ringMask[q] = len - 1;
-      fwdOff[q] = waveLen;
-      waveLen += len;
-      bwdOff[q] = waveLen;
-      waveLen += len;
       const wdt = 2 * Math.PI * fBw * dtS;
       const re = 1 - f + f * Math.cos(wdt);
       const im = -f * Math.sin(wdt);
@@ -362,6 +354,8 @@ export async function compileScenario(scenario: ResolvedScenario, options: Compi
       });
     });
   });
+  // Ring buffers of every mode (rings.ts; partitioned runs widen them per line after compile).
+  const waveLen = layRings(lineModeOff, modeK, undefined, fwdOff, bwdOff, ringMask);
   // A loop, not a spread: a large network has more delays than the argument limit.
   let worstLoss = 0;
   for (const d of delays) if (!d.fdtd && d.interpolationLoss > worstLoss) worstLoss = d.interpolationLoss;

@@ -23,18 +23,8 @@ export function ringLength(k: number, extra: number): number {
  * @param extra steps of extra history per line index.
  */
 export function widenRings(plan: Plan, extra: Int32Array): void {
-  const nLines = plan.scenario.lines.length;
-  let waveLen = 0;
-  for (let i = 0; i < nLines; i++) {
-    for (let q = plan.lineModeOff[i]; q < plan.lineModeOff[i + 1]; q++) {
-      const len = ringLength(plan.delays[q].k, extra[i]);
-      plan.ringMask[q] = len - 1;
-      plan.fwdOff[q] = waveLen;
-      waveLen += len;
-      plan.bwdOff[q] = waveLen;
-      waveLen += len;
-    }
-  }
+  const modeK = Int32Array.from(plan.delays, (d) => d.k);
+  const waveLen = layRings(plan.lineModeOff, modeK, extra, plan.fwdOff, plan.bwdOff, plan.ringMask);
   for (let p = 0; p < plan.nPorts; p++) {
     const q = plan.lineModeOff[plan.pLine[p]] + plan.pMode[p];
     const atFrom = plan.pEnd[p] === 0;
@@ -44,4 +34,29 @@ export function widenRings(plan: Plan, extra: Int32Array): void {
     plan.pOutMask[p] = plan.ringMask[q];
   }
   plan.wave = new Float64Array(waveLen);
+}
+
+/**
+ * Lays out the forward and backward ring of every mode, line by line, mode by mode.
+ * @param lineModeOff first mode of each line (nLines + 1 entries)
+ * @param modeK whole-step delay of each mode
+ * @param extra extra history per line, or undefined for none
+ * @returns the length of the wave store; fills fwdOff, bwdOff and ringMask (length - 1).
+ */
+export function layRings(
+  lineModeOff: Int32Array, modeK: ArrayLike<number>, extra: ArrayLike<number> | undefined,
+  fwdOff: Int32Array, bwdOff: Int32Array, ringMask: Int32Array,
+): number {
+  let waveLen = 0;
+  for (let i = 0; i + 1 < lineModeOff.length; i++) {
+    for (let q = lineModeOff[i]; q < lineModeOff[i + 1]; q++) {
+      const len = ringLength(modeK[q], extra ? extra[i] : 0);
+      ringMask[q] = len - 1;
+      fwdOff[q] = waveLen;
+      waveLen += len;
+      bwdOff[q] = waveLen;
+      waveLen += len;
+    }
+  }
+  return waveLen;
 }
