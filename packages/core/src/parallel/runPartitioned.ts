@@ -20,6 +20,7 @@ import type { ResolvedScenario } from '../model.ts';
 import { runPlan, type RunOptions, type RunResult, type StepDriver } from '../run/run.ts';
 import { partitionNetwork, type Partition } from './partition.ts';
 import { allocateShared, CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow } from './shared.ts';
+import { isPortable, packScenario } from './transfer.ts';
 import type { WorkerInit } from './worker.ts';
 
 /** Where the workers get the scenario from (they resolve and compile it themselves). */
@@ -159,10 +160,10 @@ async function probesReadWaves(plan: Plan, registry: PluginRegistry): Promise<bo
 }
 
 function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, ringExtra: Int32Array, spinWaitS: number, replayLines: boolean): StepDriver {
-  // The workers get the resolved scenario (a structured copy costs a fraction of resolving it
-  // again) unless it holds functions: sections of lines evaluate R(f), L(f), G(f), C(f) by
-  // closures, so such scenarios are resolved again from their source in each worker.
-  const resolved = scenario.lines.some((l) => l.section !== undefined) ? undefined : { ...scenario, locate: undefined };
+  // The workers get the resolved scenario packed once in shared memory (transfer.ts; unpacking
+  // costs a fraction of resolving it again) unless it holds closures (lines given by a section),
+  // which are resolved again from their source in each worker.
+  const packed = isPortable(scenario) ? packScenario(scenario) : undefined;
   const K = partition.K;
   const T = partition.threads;
   const layout = { K, nX: plan.x.length, nSlots: plan.slot.length, nParts: plan.parts.length, waveLength: plan.wave.length };
@@ -188,20 +189,10 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
       for (let t = 0; t < T; t++) {
         const init: WorkerInit = {
           entry: WORKER_ENTRY, self: t, threads: T, K, ringExtra, spinWaitS, modules: [...registry.modules],
-          source: { file: source.file }, resolved, owner: partition.owner, shared,
+          source: packed ? { file: source.file } : { text: source.text, data: source.data, file: source.file },
+          packed, owner: partition.owner, shared,
         };
-        const fromSource = (): Worker => new Worker(BOOTSTRAP, { workerData: { ...init, resolved: undefined, source: { text: source.text, data: source.data, file: source.file } } });
-        let w: Worker;
-        if (!resolved) w = fromSource();
-        else {
-          try {
-            w = new Worker(BOOTSTRAP, { workerData: init });
-          } catch (e) {
-            // A plugin parameter that cannot be copied (a function, say): resolve in the worker.
-            if ((e as Error).name !== 'DataCloneError') throw e;
-            w = fromSource();
-          }
-        }
+        const w = new Worker(BOOTSTRAP, { workerData: init });
         workers.push(w);
         let onReady: () => void = () => {};
         ready.push(new Promise<void>((res) => { onReady = res; }));

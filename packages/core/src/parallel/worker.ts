@@ -15,6 +15,7 @@ import { acceptNonlinear, phaseNonlinear } from '../run/newton.ts';
 import { acceptParts, computeParts, kernelRuns, phaseJunctions, phaseSources, phaseSwitches } from '../run/step.ts';
 import { phaseFdtdAfter, phaseFdtdBefore } from '../run/fdtdPhase.ts';
 import { phaseFdAfter, phaseFdBefore } from '../run/fdPhase.ts';
+import { unpackScenario } from './transfer.ts';
 import { CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow, type SharedBuffers } from './shared.ts';
 
 /** What the main thread sends. */
@@ -29,8 +30,8 @@ export interface WorkerInit {
   spinWaitS: number;
   modules: string[];
   source: { text?: string; data?: unknown; file?: string };
-  /** The main thread's resolved scenario without its `locate` (see runPartitioned.ts), or undefined. */
-  resolved?: Omit<ResolvedScenario, 'locate'> & { locate?: undefined };
+  /** The main thread's resolved scenario packed by transfer.ts, or undefined (resolve `source`). */
+  packed?: SharedArrayBuffer;
   owner: Int32Array;
   shared: SharedBuffers;
 }
@@ -68,8 +69,8 @@ async function main(init: WorkerInit): Promise<void> {
   try {
     const registry = await loadPluginModules(new PluginRegistry(), init.modules);
     const file = init.source.file;
-    const scenario: ResolvedScenario = init.resolved
-      ? { ...init.resolved, locate: () => ({ file }) }
+    const scenario: ResolvedScenario = init.packed
+      ? unpackScenario(init.packed, file)
       : init.source.text !== undefined
       ? resolveScenarioText(init.source.text, { registry, file: init.source.file })
       : resolveScenarioData(init.source.data, { registry, file: init.source.file });

@@ -4,6 +4,7 @@
  * array is allocated for the run.
  */
 import { createHash } from 'node:crypto';
+import { endianness } from 'node:os';
 import { CholeskyDecomposition, Matrix } from 'ml-matrix';
 import type { DocPath } from '../errors.ts';
 import type { ResolvedJunction, ResolvedLine, ResolvedPart, ResolvedPort, ResolvedProbe, ResolvedScenario, ResolvedTime } from '../model.ts';
@@ -474,13 +475,92 @@ export function resolveScenarioDocument(doc: LocatedDocument, options: ResolveOp
   return { ...resolved, digest: digestOf(resolved), locate: (path) => doc.locate(path) };
 }
 
-/** SHA-256 (hex) of a canonical JSON form: typed arrays as lists, document paths and file left out. */
+/** Keys that do not change the computation: where a value came from, and closures. */
+const DIGEST_SKIP = new Set(['path', 'file', 'section', 'locate']);
+
+/** Bytes of typed arrays are hashed as they are stored; on a big-endian host they are hashed as text instead. */
+const LITTLE_ENDIAN = endianness() === 'LE';
+
+/**
+ * SHA-256 (hex) of a canonical form of `value`: objects in key order, keys `path`, `file`,
+ * `section` and `locate` left out (where a value came from does not change the result), numbers as
+ * their shortest text, typed arrays by type, length and little-endian bytes. Two streams are
+ * hashed, the text of the structure and the bytes of the typed arrays in the order met, and the
+ * digest is the hash of both hashes: a resolved network of 10^5 four-conductor lines (3 * 10^6
+ * matrix entries) is hashed without turning its matrices into text.
+ */
 export function digestOf(value: unknown): string {
-  const json = JSON.stringify(value, (key, x) => {
-    if (key === 'path' || key === 'file' || key === 'section' || key === 'locate') return undefined;
-    if (ArrayBuffer.isView(x)) return Array.from(x as Float64Array);
-    if (x === Infinity) return 'Infinity';
-    return x;
-  });
-  return createHash('sha256').update(json).digest('hex');
+  const textHash = createHash('sha256');
+  const bytesHash = createHash('sha256');
+  let text = '';
+  const stage = new Uint8Array(1 << 20);
+  let at = 0;
+  const quoted = new Map<string, string>();
+  const walk = (x: unknown): void => {
+    if (x === null || x === undefined) {
+      text += 'n';
+    } else if (typeof x === 'number') {
+      text += `${x};`;
+    } else if (typeof x === 'string') {
+      text += JSON.stringify(x);
+    } else if (typeof x === 'boolean') {
+      text += x ? 't' : 'f';
+    } else if (typeof x === 'bigint') {
+      text += `${x}b;`;
+    } else if (ArrayBuffer.isView(x)) {
+      const tag = (x as { constructor: { name: string } }).constructor.name;
+      const len = (x as unknown as { length?: number }).length ?? x.byteLength;
+      if (LITTLE_ENDIAN) {
+        text += `<${tag}:${len}>`;
+        if (at + x.byteLength > stage.length) {
+          bytesHash.update(stage.subarray(0, at));
+          at = 0;
+        }
+        const b = new Uint8Array(x.buffer, x.byteOffset, x.byteLength);
+        if (b.length > stage.length) bytesHash.update(b);
+        else {
+          stage.set(b, at);
+          at += b.length;
+        }
+      } else {
+        text += `<${tag}:${len}:`;
+        const a = x as unknown as ArrayLike<number>;
+        for (let i = 0; i < a.length; i++) text += `${a[i]};`;
+        text += '>';
+      }
+    } else if (Array.isArray(x)) {
+      text += '[';
+      for (let i = 0; i < x.length; i++) walk(x[i]);
+      text += ']';
+    } else if (typeof x === 'object') {
+      const o = x as Record<string, unknown> & { toJSON?: () => unknown };
+      if (typeof o.toJSON === 'function') {
+        walk(o.toJSON());
+        return;
+      }
+      text += '{';
+      for (const k in o) {
+        if (!Object.prototype.hasOwnProperty.call(o, k)) continue;
+        const v = o[k];
+        if (v === undefined || typeof v === 'function' || DIGEST_SKIP.has(k)) continue;
+        let q = quoted.get(k);
+        if (q === undefined) {
+          q = `${JSON.stringify(k)}:`;
+          if (quoted.size < 4096) quoted.set(k, q);
+        }
+        text += q;
+        walk(v);
+      }
+      text += '}';
+    }
+    // Functions and symbols contribute nothing (as in JSON).
+    if (text.length > 1 << 16) {
+      textHash.update(text);
+      text = '';
+    }
+  };
+  walk(value);
+  textHash.update(text);
+  bytesHash.update(stage.subarray(0, at));
+  return createHash('sha256').update(textHash.digest()).update(bytesHash.digest()).digest('hex');
 }
