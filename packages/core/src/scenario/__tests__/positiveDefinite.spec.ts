@@ -1,0 +1,45 @@
+import { describe, expect, it } from 'vitest';
+import { CholeskyDecomposition, Matrix } from 'ml-matrix';
+import { isPositiveDefinite } from '../../index.ts';
+
+/** A seeded PRNG (mulberry32, public domain; common practice for reproducible tests). */
+function mulberry32(seed: number): () => number {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+describe('isPositiveDefinite', () => {
+  it('agrees with ml-matrix CholeskyDecomposition on 2000 random symmetric matrices of 1 to 8 rows', () => {
+    // Reference: ml-matrix's Cholesky factorisation (Golub and Van Loan sec. 4.2). Diagonal
+    // shifts around the smallest eigenvalue make about half the matrices definite and half not.
+    const rnd = mulberry32(7);
+    let definite = 0;
+    for (let t = 0; t < 2000; t++) {
+      const m = 1 + (t % 8);
+      const a = new Float64Array(m * m);
+      for (let i = 0; i < m; i++) for (let j = 0; j <= i; j++) a[i * m + j] = a[j * m + i] = 2 * rnd() - 1;
+      const shift = (rnd() - 0.3) * m;
+      for (let i = 0; i < m; i++) a[i * m + i] += shift;
+      const rows = Array.from({ length: m }, (_, i) => Array.from(a.subarray(i * m, (i + 1) * m)));
+      const expected = new CholeskyDecomposition(new Matrix(rows)).isPositiveDefinite();
+      expect(isPositiveDefinite(a, m)).toBe(expected);
+      if (expected) definite++;
+    }
+    expect(definite).toBeGreaterThan(400);
+    expect(definite).toBeLessThan(1600);
+  });
+
+  it('accepts a physical inductance matrix and refuses one whose mutual term exceeds the self terms', () => {
+    // Two coupled wires: L = [[L1, M], [M, L2]] is definite iff M^2 < L1 L2 (common practice).
+    expect(isPositiveDefinite(Float64Array.of(0.5e-6, 0.1e-6, 0.1e-6, 0.5e-6), 2)).toBe(true);
+    expect(isPositiveDefinite(Float64Array.of(0.5e-6, 0.6e-6, 0.6e-6, 0.5e-6), 2)).toBe(false);
+    expect(isPositiveDefinite(Float64Array.of(0), 1)).toBe(false);
+    expect(isPositiveDefinite(Float64Array.of(NaN), 1)).toBe(false);
+  });
+});
