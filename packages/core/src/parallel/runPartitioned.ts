@@ -19,9 +19,9 @@ import { resolveScenarioData, resolveScenarioText } from '../scenario/resolve.ts
 import type { ResolvedScenario } from '../model.ts';
 import { runPlan, type RunOptions, type RunResult, type StepDriver } from '../run/run.ts';
 import { partitionNetwork, type Partition } from './partition.ts';
-import { allocateShared, CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow } from './shared.ts';
+import { allocateControl, allocateShared, CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow } from './shared.ts';
 import { isPortable, packScenario } from './transfer.ts';
-import type { WorkerInit } from './worker.ts';
+import type { WorkerAssignment, WorkerInit } from './worker.ts';
 
 /** Where the workers get the scenario from (they resolve and compile it themselves). */
 export interface ScenarioSource {
@@ -42,6 +42,11 @@ export interface PartitionedOptions extends Omit<RunOptions, 'driver'> {
   portCostS?: number;
   /** How long a worker spins at a meeting before it sleeps [s] (default 2 ms). */
   spinWaitS?: number;
+  /**
+   * Line-end ports per thread from which the workers are started before this thread compiles
+   * the scenario, so that their set-up overlaps its own (default 20000).
+   */
+  earlyStartPorts?: number;
   /** History memory cap [bytes] (default 256 MiB): K is lowered to fit. */
   maxHistoryBytes?: number;
 }
@@ -103,8 +108,28 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
     : resolveScenarioData(source.data, { registry, file: source.file });
   const t0 = performance.now();
   const scenario = source.scenario ?? resolve();
-  const plan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
-  const { partition, decision } = decidePartition(plan, opts);
+  // A network large enough that its blocks will surely be worth a meeting: start the workers now,
+  // so that they unpack and compile the scenario while this thread compiles it (a worker the
+  // decision below does not use is ended before it does anything else).
+  const cores = availableParallelism();
+  const want = Math.min(Math.max(1, Math.floor(opts.threads)), cores);
+  const ports = scenario.lines.reduce((n, l) => n + 2 * l.conductors.length, 0);
+  const control = allocateControl();
+  const spinWaitS = opts.spinWaitS ?? 2e-3;
+  const early = want > 1 && ports >= (opts.earlyStartPorts ?? EARLY_START_PORTS_PER_THREAD) * want
+    ? startWorkers(want, source, scenario, registry, control, spinWaitS)
+    : undefined;
+  let plan: Plan;
+  let partition: Partition | undefined;
+  let decision: PartitionDecision;
+  try {
+    plan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
+    ({ partition, decision } = decidePartition(plan, opts));
+  } catch (e) {
+    if (early) await Promise.all(early.map((h) => h.worker.terminate()));
+    throw e;
+  }
+  if (early) for (const h of early.slice(partition?.threads ?? 0)) void h.worker.terminate();
   if (!partition) {
     const r = await runPlan(plan, opts, (performance.now() - t0) / 1000);
     if (decision.asked > 1) r.warnings.push(`ran on 1 thread of ${decision.asked} asked: ${decision.reason}`);
@@ -117,15 +142,94 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
   // do all rings need two blocks more (which costs memory and, beyond the cache, time).
   const readsWaves = await probesReadWaves(plan, registry);
   const ringExtra = new Int32Array(scenario.lines.length);
+  const owner = partition.owner;
   scenario.lines.forEach((l, i) => {
-    ringExtra[i] = readsWaves ? 2 * K : partition.owner[l.from] !== partition.owner[l.to] ? K : 0;
+    ringExtra[i] = readsWaves ? 2 * K : owner[l.from] !== owner[l.to] ? K : 0;
   });
   widenRings(plan, ringExtra);
   const compileS = (performance.now() - t0) / 1000;
-  const driver = partitionedDriver(plan, partition, source, scenario, registry, ringExtra, opts.spinWaitS ?? 2e-3, readsWaves);
+  const handles = early?.slice(0, partition.threads) ?? startWorkers(partition.threads, source, scenario, registry, control, spinWaitS);
+  const driver = partitionedDriver(plan, partition, handles, control, ringExtra, readsWaves);
   const r = await runPlan(plan, { ...opts, driver }, compileS);
   r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
   return Object.assign(r, { partition: decision });
+}
+
+/**
+ * Line-end ports per thread from which the workers are started before this thread compiles: at
+ * the default 10 ns a port and 1 ms of useful work per meeting, 2 * 10^4 ports per thread hold a
+ * block's worth of work from a meeting interval of 5 steps.
+ */
+const EARLY_START_PORTS_PER_THREAD = 20_000;
+
+/** What a worker posts when it has stepped its last block. */
+interface FinishedMessage {
+  type: 'finished';
+  outputs?: Record<string, StructuredOutput>;
+  warnings?: string[];
+  computeS?: number;
+  waitS?: number;
+  startS?: number;
+}
+
+/** A started worker and the promises of its stages; `errors` collects what any worker reported. */
+interface WorkerHandle {
+  worker: Worker;
+  /** Settles when the worker has compiled the scenario, failed or ended. */
+  compiled: Promise<void>;
+  /** Settles when the worker has taken its assignment (or failed or ended). */
+  ready: Promise<void>;
+  /** Settles when the worker has finished, failed or ended. */
+  finished: Promise<void>;
+  result?: FinishedMessage;
+  errors: Array<{ message: string; code?: string; details?: Record<string, unknown> }>;
+}
+
+/**
+ * Starts `count` workers on the scenario: the resolved scenario packed once in shared memory
+ * (transfer.ts; unpacking costs a fraction of resolving it again) unless it holds closures (lines
+ * given by a section), which each worker resolves again from its source.
+ */
+function startWorkers(count: number, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, control: SharedArrayBuffer, spinWaitS: number): WorkerHandle[] {
+  const packed = isPortable(scenario) ? packScenario(scenario) : undefined;
+  const init: WorkerInit = {
+    entry: WORKER_ENTRY, modules: [...registry.modules], control, spinWaitS,
+    source: packed ? { file: source.file } : { text: source.text, data: source.data, file: source.file },
+    packed,
+  };
+  const words = new Int32Array(control, 0, CONTROL_WORDS);
+  return Array.from({ length: count }, () => {
+    const worker = new Worker(BOOTSTRAP, { workerData: init });
+    let onCompiled: () => void = () => {};
+    let onReady: () => void = () => {};
+    let onFinished: () => void = () => {};
+    const h: WorkerHandle = {
+      worker,
+      compiled: new Promise<void>((res) => { onCompiled = res; }),
+      ready: new Promise<void>((res) => { onReady = res; }),
+      finished: new Promise<void>((res) => { onFinished = res; }),
+      errors: [],
+    };
+    const end = (): void => { onCompiled(); onReady(); onFinished(); };
+    worker.on('message', (m: { type: string; message?: string; code?: string; details?: Record<string, unknown> }) => {
+      if (m.type === 'compiled') onCompiled();
+      else if (m.type === 'ready') onReady();
+      else if (m.type === 'finished') {
+        h.result = m as FinishedMessage;
+        onFinished();
+      } else if (m.type === 'error') {
+        h.errors.push({ message: m.message ?? 'worker failed', code: m.code, details: m.details });
+        end();
+      }
+    });
+    worker.on('error', (e) => {
+      h.errors.push({ message: e.message });
+      Atomics.store(words, ERROR, 1);
+      end();
+    });
+    worker.on('exit', end);
+    return h;
+  });
 }
 
 /**
@@ -159,15 +263,11 @@ async function probesReadWaves(plan: Plan, registry: PluginRegistry): Promise<bo
   return reads;
 }
 
-function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, ringExtra: Int32Array, spinWaitS: number, replayLines: boolean): StepDriver {
-  // The workers get the resolved scenario packed once in shared memory (transfer.ts; unpacking
-  // costs a fraction of resolving it again) unless it holds closures (lines given by a section),
-  // which are resolved again from their source in each worker.
-  const packed = isPortable(scenario) ? packScenario(scenario) : undefined;
+function partitionedDriver(plan: Plan, partition: Partition, handles: WorkerHandle[], controlBuffer: SharedArrayBuffer, ringExtra: Int32Array, replayLines: boolean): StepDriver {
   const K = partition.K;
   const T = partition.threads;
   const layout = { K, nX: plan.x.length, nSlots: plan.slot.length, nParts: plan.parts.length, waveLength: plan.wave.length };
-  const shared = allocateShared(layout);
+  const shared = allocateShared(layout, controlBuffer);
   const loadOutputs: Record<string, StructuredOutput> = {};
   const loadWarnings: string[] = [];
   return {
@@ -180,55 +280,25 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
       const slotHist = new Float64Array(shared.slotHist);
       const nlHist = new Float64Array(shared.nlHist);
       const control = new Int32Array(shared.control, 0, CONTROL_WORDS);
-      const workers: Worker[] = [];
-      const errors: Array<{ message: string; code?: string; details?: Record<string, unknown> }> = [];
-      const finished: Array<Promise<void>> = [];
-      const ready: Array<Promise<void>> = [];
-      // Worker start-up (copying the scenario, loading, compiling) is reported apart from stepping.
-      const tSetup = performance.now();
-      for (let t = 0; t < T; t++) {
-        const init: WorkerInit = {
-          entry: WORKER_ENTRY, self: t, threads: T, K, ringExtra, spinWaitS, modules: [...registry.modules],
-          source: packed ? { file: source.file } : { text: source.text, data: source.data, file: source.file },
-          packed, owner: partition.owner, shared,
-        };
-        const w = new Worker(BOOTSTRAP, { workerData: init });
-        workers.push(w);
-        let onReady: () => void = () => {};
-        ready.push(new Promise<void>((res) => { onReady = res; }));
-        finished.push(new Promise<void>((res) => {
-          w.on('message', (m: { type: string; outputs?: Record<string, StructuredOutput>; warnings?: string[]; message?: string; code?: string; details?: Record<string, unknown>; computeS?: number; waitS?: number; startS?: number }) => {
-            if (m.type === 'ready') onReady();
-            else if (m.type === 'finished') {
-              // Per-worker stepping and waiting time, for the efficiency figures.
-              io.timing[`worker${t}Compute`] = m.computeS ?? 0;
-              io.timing[`worker${t}Wait`] = m.waitS ?? 0;
-              io.timing[`worker${t}Start`] = m.startS ?? 0;
-              Object.assign(loadOutputs, m.outputs);
-              loadWarnings.push(...(m.warnings ?? []));
-              res();
-            } else if (m.type === 'error') {
-              errors.push({ message: m.message ?? 'worker failed', code: m.code, details: m.details });
-              onReady();
-              res();
-            }
-          });
-          w.on('error', (e) => {
-            errors.push({ message: e.message });
-            Atomics.store(control, ERROR, 1);
-            onReady();
-            res();
-          });
-          w.on('exit', () => { onReady(); res(); });
-        }));
-      }
+      const workers = handles.map((h) => h.worker);
+      const finished = handles.map((h) => h.finished);
+      const errorsNow = () => handles.flatMap((h) => h.errors);
       const fail = (): never => {
-        const e = errors[0] ?? { message: 'a worker stopped' };
+        const e = errorsNow()[0] ?? { message: 'a worker stopped' };
         throw new SkeinError(e.code ?? 'E_WORKER', `partitioned run: ${e.message}`, e.details ?? {});
       };
+      // Worker start-up (loading, unpacking, compiling) is reported apart from stepping: what
+      // is left of it after this thread's own compile.
+      const tSetup = performance.now();
       try {
-        await Promise.all(ready);
-        if (errors.length > 0) fail();
+        await Promise.all(handles.map((h) => h.compiled));
+        if (errorsNow().length > 0) fail();
+        handles.forEach((h, t) => {
+          const job: WorkerAssignment = { type: 'assignment', self: t, threads: T, K, ringExtra, owner: partition.owner, shared };
+          h.worker.postMessage(job);
+        });
+        await Promise.all(handles.map((h) => h.ready));
+        if (errorsNow().length > 0) fail();
         io.timing.workerSetup = (performance.now() - tSetup) / 1000;
         const nBlocks = Math.floor(p.nSteps / K) + 1;
         const varyingLoads = [...p.varying.flatMap((v) => v.loads), ...p.nonlinear.flatMap((v) => v.varying)];
@@ -270,7 +340,7 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
           const t1 = performance.now();
           // This thread sleeps (it is not on the workers' path: they release each other).
           while (Atomics.load(control, DONE) < target) {
-            if (Atomics.load(control, ERROR) !== 0 || errors.length > 0) {
+            if (Atomics.load(control, ERROR) !== 0 || errorsNow().length > 0) {
               await Promise.all(finished);
               fail();
             }
@@ -282,7 +352,16 @@ function partitionedDriver(plan: Plan, partition: Partition, source: ScenarioSou
           Atomics.notify(control, REPLAYED);
         }
         await Promise.all(finished);
-        if (errors.length > 0) fail();
+        if (errorsNow().length > 0) fail();
+        handles.forEach((h, t) => {
+          // Per-worker stepping and waiting time, for the efficiency figures.
+          const m = h.result;
+          io.timing[`worker${t}Compute`] = m?.computeS ?? 0;
+          io.timing[`worker${t}Wait`] = m?.waitS ?? 0;
+          io.timing[`worker${t}Start`] = m?.startS ?? 0;
+          Object.assign(loadOutputs, m?.outputs);
+          loadWarnings.push(...(m?.warnings ?? []));
+        });
         // The workers have posted their results and end by themselves; their teardown (freeing
         // their plans) overlaps with this thread's finish.
         for (const w of workers) void w.terminate();

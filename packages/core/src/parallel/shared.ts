@@ -39,10 +39,15 @@ export interface HistoryLayout {
   waveLength: number;
 }
 
-/** Allocates the shared buffers for a layout. */
-export function allocateShared(l: HistoryLayout): SharedBuffers {
+/** Allocates the control words (before the workers start). */
+export function allocateControl(): SharedArrayBuffer {
+  return new SharedArrayBuffer(4 * CONTROL_WORDS);
+}
+
+/** Allocates the shared buffers for a layout, around control words already shared. */
+export function allocateShared(l: HistoryLayout, control: SharedArrayBuffer): SharedBuffers {
   return {
-    control: new SharedArrayBuffer(4 * CONTROL_WORDS),
+    control,
     wave: new SharedArrayBuffer(8 * l.waveLength),
     xHist: new SharedArrayBuffer(8 * Math.max(1, 2 * l.K * l.nX)),
     slotHist: new SharedArrayBuffer(8 * Math.max(1, 2 * l.K * l.nSlots)),

@@ -1,7 +1,10 @@
 /**
  * Worker side of a partitioned run: compiles the same scenario (deterministically, so the plan's
- * layout matches the main thread's), takes the shared ring buffers, and steps only the junctions
- * it owns, block by block (see shared.ts).
+ * layout matches the main thread's) and says so; then takes its assignment (which junctions are
+ * its own, the meeting interval, the shared ring buffers) and steps only the junctions it owns,
+ * block by block (see shared.ts). The main thread may start the workers before it has compiled
+ * the scenario itself, so that their compiling overlaps its own; it ends a worker it does not
+ * need before the assignment.
  */
 import { parentPort, workerData } from 'node:worker_threads';
 import { compileScenario } from '../compile/compile.ts';
@@ -18,20 +21,27 @@ import { phaseFdAfter, phaseFdBefore } from '../run/fdPhase.ts';
 import { unpackScenario } from './transfer.ts';
 import { CONTROL_WORDS, DONE, ERROR, GO, REPLAYED, historyRow, type SharedBuffers } from './shared.ts';
 
-/** What the main thread sends. */
+/** What the main thread sends at the start. */
 export interface WorkerInit {
   entry: string;
+  modules: string[];
+  source: { text?: string; data?: unknown; file?: string };
+  /** The main thread's resolved scenario packed by transfer.ts, or undefined (resolve `source`). */
+  packed?: SharedArrayBuffer;
+  /** Control words (shared.ts), shared from the start so that either side can stop the run. */
+  control: SharedArrayBuffer;
+  /** How long a worker spins before it sleeps at a meeting [s]. */
+  spinWaitS: number;
+}
+
+/** What the main thread sends once the worker has compiled and the partition is decided. */
+export interface WorkerAssignment {
+  type: 'assignment';
   self: number;
   threads: number;
   K: number;
   /** Extra ring history per line (rings.ts), the same as the main thread's. */
   ringExtra: Int32Array;
-  /** How long a worker spins before it sleeps at a meeting [s]. */
-  spinWaitS: number;
-  modules: string[];
-  source: { text?: string; data?: unknown; file?: string };
-  /** The main thread's resolved scenario packed by transfer.ts, or undefined (resolve `source`). */
-  packed?: SharedArrayBuffer;
   owner: Int32Array;
   shared: SharedBuffers;
 }
@@ -64,7 +74,7 @@ function awaitBlock(control: Int32Array, done: number, replayed: number, spinMs:
 }
 
 async function main(init: WorkerInit): Promise<void> {
-  const control = new Int32Array(init.shared.control, 0, CONTROL_WORDS);
+  const control = new Int32Array(init.control, 0, CONTROL_WORDS);
   let blocksDone = 0;
   try {
     const registry = await loadPluginModules(new PluginRegistry(), init.modules);
@@ -75,13 +85,16 @@ async function main(init: WorkerInit): Promise<void> {
       ? resolveScenarioText(init.source.text, { registry, file: init.source.file })
       : resolveScenarioData(init.source.data, { registry, file: init.source.file });
     const plan = await compileScenario(scenario, { registry });
-    widenRings(plan, init.ringExtra);
+    const assigned = new Promise<WorkerAssignment>((res) => parentPort!.once('message', res));
+    parentPort!.postMessage({ type: 'compiled' });
+    const job = await assigned;
+    widenRings(plan, job.ringExtra);
     const warnStart = plan.warnings.length;
-    const wave = new Float64Array(init.shared.wave);
+    const wave = new Float64Array(job.shared.wave);
     if (wave.length !== plan.wave.length) throw new SkeinError('E_BUG', `bug: worker plan has ${plan.wave.length} wave slots, main ${wave.length}`);
     plan.wave = wave;
     const own = new Uint8Array(plan.nJunctions);
-    for (let j = 0; j < plan.nJunctions; j++) own[j] = init.owner[j] === init.self ? 1 : 0;
+    for (let j = 0; j < plan.nJunctions; j++) own[j] = job.owner[j] === job.self ? 1 : 0;
     // Only what this worker owns runs here.
     const allRuns = kernelRuns(plan);
     const runs: number[] = [];
@@ -109,19 +122,19 @@ async function main(init: WorkerInit): Promise<void> {
     const xRanges: number[] = [];
     for (let j = 0; j < plan.nJunctions; j++) if (own[j]) xRanges.push(plan.jX[j], plan.jX[j + 1]);
     const mySlots: number[] = [];
-    if (init.self === 0) for (const w of plan.waveforms) mySlots.push(w.slot);
+    if (job.self === 0) for (const w of plan.waveforms) mySlots.push(w.slot);
     for (const p of plan.historyLoads) mySlots.push(p.slot);
     const myParts = plan.parts.filter((p) => p.mode === 'nonlinear').map((p) => p.index);
     const nX = plan.x.length;
     const nSlots = plan.slot.length;
     const nParts = allParts.length;
-    const xHist = new Float64Array(init.shared.xHist);
-    const slotHist = new Float64Array(init.shared.slotHist);
-    const nlHist = new Float64Array(init.shared.nlHist);
+    const xHist = new Float64Array(job.shared.xHist);
+    const slotHist = new Float64Array(job.shared.slotHist);
+    const nlHist = new Float64Array(job.shared.nlHist);
     const partV = new Float64Array(nParts);
     const partI = new Float64Array(nParts);
     const partU = new Float64Array(nParts);
-    const K = init.K;
+    const K = job.K;
     const spinMs = init.spinWaitS * 1000;
     const nBlocks = Math.floor(plan.nSteps / K) + 1;
     parentPort!.postMessage({ type: 'ready' });
@@ -135,7 +148,7 @@ async function main(init: WorkerInit): Promise<void> {
           if (Atomics.load(control, ERROR) !== 0) return;
           Atomics.wait(control, GO, 0, 1000);
         }
-      } else if (!awaitBlock(control, init.threads * b, b - 1, spinMs)) return;
+      } else if (!awaitBlock(control, job.threads * b, b - 1, spinMs)) return;
       const tc = performance.now();
       // The wait before the first block is the other workers' start-up, not a meeting.
       if (b === 0) startMs = tc - tw;
@@ -170,7 +183,7 @@ async function main(init: WorkerInit): Promise<void> {
     }
     const outputs: Record<string, StructuredOutput> = {};
     const warnings: string[] = plan.warnings.slice(warnStart);
-    for (const w of plan.waveforms) if (init.self === 0) w.instance.finish?.();
+    for (const w of plan.waveforms) if (job.self === 0) w.instance.finish?.();
     for (const p of plan.parts) {
       if (!p.load) continue;
       try {
