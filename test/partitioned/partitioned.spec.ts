@@ -180,8 +180,8 @@ describe('runPartitioned', () => {
   it('gives the same result when the workers start before the main thread compiles', async () => {
     const registry = await standardRegistry();
     const text = tree4(60);
-    const late = await runPartitioned({ text, file: 'tree4.yaml' }, { registry, threads: 2, minBlockWorkS: 0, earlyStartPorts: Infinity });
-    const early = await runPartitioned({ text, file: 'tree4.yaml' }, { registry, threads: 2, minBlockWorkS: 0, earlyStartPorts: 0 });
+    const late = await runPartitioned({ text, file: 'tree4.yaml' }, { registry, threads: 2, minBlockWorkS: 0, earlyStart: false });
+    const early = await runPartitioned({ text, file: 'tree4.yaml' }, { registry, threads: 2, minBlockWorkS: 0, earlyStart: true });
     expect(early.partition.used).toBe(2);
     const a = late.traces.data;
     const b = early.traces.data;
@@ -190,7 +190,7 @@ describe('runPartitioned', () => {
     for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) differing++;
     expect(differing).toBe(0);
     // Workers started early and then not needed are ended: the run falls back to one thread.
-    const small = await runPartitioned({ text: chain(10), file: 'small.yaml' }, { registry, threads: 2, earlyStartPorts: 0 });
+    const small = await runPartitioned({ text: chain(10), file: 'small.yaml' }, { registry, threads: 2, earlyStart: true });
     expect(small.partition.used).toBe(1);
   });
 

@@ -43,10 +43,12 @@ export interface PartitionedOptions extends Omit<RunOptions, 'driver'> {
   /** How long a worker spins at a meeting before it sleeps [s] (default 2 ms). */
   spinWaitS?: number;
   /**
-   * Line-end ports per thread from which the workers are started before this thread compiles
-   * the scenario, so that their set-up overlaps its own (default 20000).
+   * Start the workers before this thread compiles the scenario, so that their set-up overlaps its
+   * own. Default: when the machine has a core for every worker besides this thread's and the
+   * network has at least 2 * 10^4 line-end ports per thread. With fewer cores the main thread's
+   * compile competes with the workers' and the set-up took longer (benchmarks/README.md).
    */
-  earlyStartPorts?: number;
+  earlyStart?: boolean;
   /** History memory cap [bytes] (default 256 MiB): K is lowered to fit. */
   maxHistoryBytes?: number;
 }
@@ -108,17 +110,17 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
     : resolveScenarioData(source.data, { registry, file: source.file });
   const t0 = performance.now();
   const scenario = source.scenario ?? resolve();
-  // A network large enough that its blocks will surely be worth a meeting: start the workers now,
-  // so that they unpack and compile the scenario while this thread compiles it (a worker the
-  // decision below does not use is ended before it does anything else).
+  // A network large enough that its blocks will surely be worth a meeting, on a machine with a
+  // core to spare for this thread: start the workers now, so that they unpack and compile the
+  // scenario while this thread compiles it (a worker the decision below does not use is ended
+  // before it does anything else).
   const cores = availableParallelism();
   const want = Math.min(Math.max(1, Math.floor(opts.threads)), cores);
   const ports = scenario.lines.reduce((n, l) => n + 2 * l.conductors.length, 0);
   const control = allocateControl();
   const spinWaitS = opts.spinWaitS ?? 2e-3;
-  const early = want > 1 && ports >= (opts.earlyStartPorts ?? EARLY_START_PORTS_PER_THREAD) * want
-    ? startWorkers(want, source, scenario, registry, control, spinWaitS)
-    : undefined;
+  const earlyStart = opts.earlyStart ?? (want + 1 <= cores && ports >= EARLY_START_PORTS_PER_THREAD * want);
+  const early = want > 1 && earlyStart ? startWorkers(want, source, scenario, registry, control, spinWaitS) : undefined;
   let plan: Plan;
   let partition: Partition | undefined;
   let decision: PartitionDecision;
@@ -156,7 +158,8 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
 }
 
 /**
- * Line-end ports per thread from which the workers are started before this thread compiles: at
+ * Line-end ports per thread from which the workers are started before this thread compiles (when
+ * a core is free for it): at
  * the default 10 ns a port and 1 ms of useful work per meeting, 2 * 10^4 ports per thread hold a
  * block's worth of work from a meeting interval of 5 steps.
  */
