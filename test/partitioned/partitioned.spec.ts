@@ -98,6 +98,14 @@ probes:
 `;
 }
 
+/** Counts the samples of two trace buffers that are not the same float64 (0: bit for bit equal). */
+function differingSamples(a: Float64Array, b: Float64Array): number {
+  expect(b.length).toBe(a.length);
+  let differing = 0;
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) differing++;
+  return differing;
+}
+
 describe('partitionNetwork', () => {
   it('balances the stepping cost to within one junction when meetings cost nothing, and trades balance for longer crossings when they do', async () => {
     const registry = await standardRegistry();
@@ -131,14 +139,10 @@ describe('runPartitioned', () => {
     expect(parallel.partition.used).toBe(2);
     expect(parallel.partition.crossing).toBeGreaterThan(0);
     const a = serial.traces.data;
-    const b = parallel.traces.data;
-    expect(b.length).toBe(a.length);
     let peak = 0;
     for (let i = 0; i < a.length; i++) peak = Math.max(peak, Math.abs(a[i]));
     expect(peak).toBeGreaterThan(0.1);
-    let differing = 0;
-    for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) differing++;
-    expect(differing).toBe(0);
+    expect(differingSamples(a, parallel.traces.data)).toBe(0);
   });
 
   it('equals the single-thread run bit for bit, with lossless, lossy (FDTD), frequency-dependent and nonlinear parts', async () => {
@@ -152,12 +156,7 @@ describe('runPartitioned', () => {
     expect(parallel.partition.K).toBeGreaterThanOrEqual(1);
     expect(parallel.traceNames).toEqual(serial.traceNames);
     expect(serial.traceNames.length).toBeGreaterThan(10);
-    const a = serial.traces.data;
-    const b = parallel.traces.data;
-    expect(b.length).toBe(a.length);
-    let differing = 0;
-    for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) differing++;
-    expect(differing).toBe(0);
+    expect(differingSamples(serial.traces.data, parallel.traces.data)).toBe(0);
     // The diode conducted (so the nonlinear path was exercised) and its results came back.
     const di = serial.traces.pick(serial.traceNames.indexOf('diode.i'), null);
     let peak = 0;
@@ -183,12 +182,7 @@ describe('runPartitioned', () => {
     const late = await runPartitioned({ text, file: 'tree4.yaml' }, { registry, threads: 2, minBlockWorkS: 0, earlyStart: false });
     const early = await runPartitioned({ text, file: 'tree4.yaml' }, { registry, threads: 2, minBlockWorkS: 0, earlyStart: true });
     expect(early.partition.used).toBe(2);
-    const a = late.traces.data;
-    const b = early.traces.data;
-    expect(b.length).toBe(a.length);
-    let differing = 0;
-    for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) differing++;
-    expect(differing).toBe(0);
+    expect(differingSamples(late.traces.data, early.traces.data)).toBe(0);
     // Workers started early and then not needed are ended: the run falls back to one thread.
     const small = await runPartitioned({ text: chain(10), file: 'small.yaml' }, { registry, threads: 2, earlyStart: true });
     expect(small.partition.used).toBe(1);
