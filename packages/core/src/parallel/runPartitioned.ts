@@ -121,47 +121,48 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
   const spinWaitS = opts.spinWaitS ?? 2e-3;
   const earlyStart = opts.earlyStart ?? (want + 1 <= cores && ports >= EARLY_START_PORTS_PER_THREAD * want);
   const early = want > 1 && earlyStart ? startWorkers(want, source, scenario, registry, control, spinWaitS) : undefined;
-  let plan: Plan;
-  let partition: Partition | undefined;
-  let decision: PartitionDecision;
+  const started: WorkerHandle[] = [...(early ?? [])];
   try {
-    plan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
-    ({ partition, decision } = decidePartition(plan, opts));
+    const plan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
+    const { partition, decision } = decidePartition(plan, opts);
+    if (early) for (const h of early.slice(partition?.threads ?? 0)) void h.worker.terminate();
+    if (!partition) {
+      const r = await runPlan(plan, opts, (performance.now() - t0) / 1000);
+      if (decision.asked > 1) r.warnings.push(`ran on 1 thread of ${decision.asked} asked: ${decision.reason}`);
+      return Object.assign(r, { partition: decision });
+    }
+    const K = partition.K;
+    // Ring history (rings.ts): a line crossing threads needs K more steps (its writer may be up to
+    // K - 1 steps ahead of its reader); the replay one block behind the workers reads waves from
+    // the rings only for probes that ask for line ends, line points or the ledger, and only then
+    // do all rings need two blocks more (which costs memory and, beyond the cache, time).
+    const readsWaves = await probesReadWaves(plan, registry);
+    const ringExtra = new Int32Array(scenario.lines.length);
+    const owner = partition.owner;
+    scenario.lines.forEach((l, i) => {
+      ringExtra[i] = readsWaves ? 2 * K : owner[l.from] !== owner[l.to] ? K : 0;
+    });
+    widenRings(plan, ringExtra);
+    const handles = early?.slice(0, partition.threads) ?? startWorkers(partition.threads, source, scenario, registry, control, spinWaitS);
+    if (!early) started.push(...handles);
+    // Set-up on this thread: resolve, compile, partition and packing the scenario for the workers.
+    const compileS = (performance.now() - t0) / 1000;
+    const driver = partitionedDriver(plan, partition, handles, control, ringExtra, readsWaves);
+    const r = await runPlan(plan, { ...opts, driver }, compileS);
+    r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
+    return Object.assign(r, { partition: decision });
   } catch (e) {
-    if (early) await Promise.all(early.map((h) => h.worker.terminate()));
+    // No worker outlives a run that failed on this thread (a worker waiting for its assignment
+    // would keep the process alive).
+    await Promise.all(started.map((h) => h.worker.terminate()));
     throw e;
   }
-  if (early) for (const h of early.slice(partition?.threads ?? 0)) void h.worker.terminate();
-  if (!partition) {
-    const r = await runPlan(plan, opts, (performance.now() - t0) / 1000);
-    if (decision.asked > 1) r.warnings.push(`ran on 1 thread of ${decision.asked} asked: ${decision.reason}`);
-    return Object.assign(r, { partition: decision });
-  }
-  const K = partition.K;
-  // Ring history (rings.ts): a line crossing threads needs K more steps (its writer may be up to
-  // K - 1 steps ahead of its reader); the replay one block behind the workers reads waves from
-  // the rings only for probes that ask for line ends, line points or the ledger, and only then
-  // do all rings need two blocks more (which costs memory and, beyond the cache, time).
-  const readsWaves = await probesReadWaves(plan, registry);
-  const ringExtra = new Int32Array(scenario.lines.length);
-  const owner = partition.owner;
-  scenario.lines.forEach((l, i) => {
-    ringExtra[i] = readsWaves ? 2 * K : owner[l.from] !== owner[l.to] ? K : 0;
-  });
-  widenRings(plan, ringExtra);
-  const compileS = (performance.now() - t0) / 1000;
-  const handles = early?.slice(0, partition.threads) ?? startWorkers(partition.threads, source, scenario, registry, control, spinWaitS);
-  const driver = partitionedDriver(plan, partition, handles, control, ringExtra, readsWaves);
-  const r = await runPlan(plan, { ...opts, driver }, compileS);
-  r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
-  return Object.assign(r, { partition: decision });
 }
 
 /**
  * Line-end ports per thread from which the workers are started before this thread compiles (when
- * a core is free for it): at
- * the default 10 ns a port and 1 ms of useful work per meeting, 2 * 10^4 ports per thread hold a
- * block's worth of work from a meeting interval of 5 steps.
+ * a core is free for it): at the default 10 ns a port and 1 ms of useful work per meeting,
+ * 2 * 10^4 ports per thread hold a block's worth of work from a meeting interval of 5 steps.
  */
 const EARLY_START_PORTS_PER_THREAD = 20_000;
 
