@@ -145,13 +145,13 @@ export function matrix(doc: LocatedDocument, path: DocPath, v: unknown, n: numbe
 export function isPositiveDefinite(a: Float64Array, m: number): boolean {
   const l = new Float64Array(m * m);
   for (let j = 0; j < m; j++) {
-    // Symmetrised: the caller checked symmetry to rounding; the factorisation wants it exact.
     let d = a[j * m + j];
     for (let k = 0; k < j; k++) d -= l[j * m + k] * l[j * m + k];
     if (!(d > 0)) return false;
     const ljj = Math.sqrt(d);
     l[j * m + j] = ljj;
     for (let i = j + 1; i < m; i++) {
+      // Symmetrised: the caller checked symmetry to rounding; the factorisation wants it exact.
       let s = 0.5 * (a[i * m + j] + a[j * m + i]);
       for (let k = 0; k < j; k++) s -= l[i * m + k] * l[j * m + k];
       l[i * m + j] = s / ljj;
