@@ -183,7 +183,8 @@ describe('runPartitioned', () => {
     const early = await runPartitioned({ text, file: 'tree4.yaml' }, { registry, threads: 2, minBlockWorkS: 0, earlyStart: true });
     expect(early.partition.used).toBe(2);
     expect(differingSamples(late.traces.data, early.traces.data)).toBe(0);
-    // Workers started early and then not needed are ended: the run falls back to one thread.
+    // Workers started early that the decision does not use: the run falls back to one thread
+    // and completes.
     const small = await runPartitioned({ text: chain(10), file: 'small.yaml' }, { registry, threads: 2, earlyStart: true });
     expect(small.partition.used).toBe(1);
   });

@@ -120,7 +120,10 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
   const control = allocateControl();
   const spinWaitS = opts.spinWaitS ?? 2e-3;
   const earlyStart = opts.earlyStart ?? (want + 1 <= cores && ports >= EARLY_START_PORTS_PER_THREAD * want);
-  const early = want > 1 && earlyStart ? startWorkers(want, source, scenario, registry, control, spinWaitS) : undefined;
+  // What any worker reports going wrong, read by this thread while it waits (one list, so that
+  // checking it allocates nothing).
+  const errors: WorkerError[] = [];
+  const early = want > 1 && earlyStart ? startWorkers(want, source, scenario, registry, control, spinWaitS, errors) : undefined;
   const started: WorkerHandle[] = [...(early ?? [])];
   try {
     const plan = await compileScenario(scenario, { registry, onWarning: opts.onWarning });
@@ -143,11 +146,11 @@ export async function runPartitioned(source: ScenarioSource, opts: PartitionedOp
       ringExtra[i] = readsWaves ? 2 * K : owner[l.from] !== owner[l.to] ? K : 0;
     });
     widenRings(plan, ringExtra);
-    const handles = early?.slice(0, partition.threads) ?? startWorkers(partition.threads, source, scenario, registry, control, spinWaitS);
+    const handles = early?.slice(0, partition.threads) ?? startWorkers(partition.threads, source, scenario, registry, control, spinWaitS, errors);
     if (!early) started.push(...handles);
     // Set-up on this thread: resolve, compile, partition and packing the scenario for the workers.
     const compileS = (performance.now() - t0) / 1000;
-    const driver = partitionedDriver(plan, partition, handles, control, ringExtra, readsWaves);
+    const driver = partitionedDriver(plan, partition, handles, errors, control, ringExtra, readsWaves);
     const r = await runPlan(plan, { ...opts, driver }, compileS);
     r.warnings.push(`ran on ${decision.used} threads (${decision.reason}); threads meet every ${K} steps; ${decision.crossing} lines cross between threads; ports per thread ${decision.work.join(', ')}`);
     return Object.assign(r, { partition: decision });
@@ -176,7 +179,14 @@ interface FinishedMessage {
   startS?: number;
 }
 
-/** A started worker and the promises of its stages; `errors` collects what any worker reported. */
+/** What a worker reported going wrong. */
+interface WorkerError {
+  message: string;
+  code?: string;
+  details?: Record<string, unknown>;
+}
+
+/** A started worker and the promises of its stages. */
 interface WorkerHandle {
   worker: Worker;
   /** Settles when the worker has compiled the scenario, failed or ended. */
@@ -186,15 +196,14 @@ interface WorkerHandle {
   /** Settles when the worker has finished, failed or ended. */
   finished: Promise<void>;
   result?: FinishedMessage;
-  errors: Array<{ message: string; code?: string; details?: Record<string, unknown> }>;
 }
 
 /**
  * Starts `count` workers on the scenario: the resolved scenario packed once in shared memory
  * (transfer.ts; unpacking costs a fraction of resolving it again) unless it holds closures (lines
- * given by a section), which each worker resolves again from its source.
+ * given by a section), which each worker resolves again from its source. Their errors go to `errors`.
  */
-function startWorkers(count: number, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, control: SharedArrayBuffer, spinWaitS: number): WorkerHandle[] {
+function startWorkers(count: number, source: ScenarioSource, scenario: ResolvedScenario, registry: PluginRegistry, control: SharedArrayBuffer, spinWaitS: number, errors: WorkerError[]): WorkerHandle[] {
   const packed = isPortable(scenario) ? packScenario(scenario) : undefined;
   const init: WorkerInit = {
     entry: WORKER_ENTRY, modules: [...registry.modules], control, spinWaitS,
@@ -212,7 +221,6 @@ function startWorkers(count: number, source: ScenarioSource, scenario: ResolvedS
       compiled: new Promise<void>((res) => { onCompiled = res; }),
       ready: new Promise<void>((res) => { onReady = res; }),
       finished: new Promise<void>((res) => { onFinished = res; }),
-      errors: [],
     };
     const end = (): void => { onCompiled(); onReady(); onFinished(); };
     worker.on('message', (m: { type: string; message?: string; code?: string; details?: Record<string, unknown> }) => {
@@ -222,12 +230,12 @@ function startWorkers(count: number, source: ScenarioSource, scenario: ResolvedS
         h.result = m as FinishedMessage;
         onFinished();
       } else if (m.type === 'error') {
-        h.errors.push({ message: m.message ?? 'worker failed', code: m.code, details: m.details });
+        errors.push({ message: m.message ?? 'worker failed', code: m.code, details: m.details });
         end();
       }
     });
     worker.on('error', (e) => {
-      h.errors.push({ message: e.message });
+      errors.push({ message: e.message });
       Atomics.store(words, ERROR, 1);
       end();
     });
@@ -267,7 +275,7 @@ async function probesReadWaves(plan: Plan, registry: PluginRegistry): Promise<bo
   return reads;
 }
 
-function partitionedDriver(plan: Plan, partition: Partition, handles: WorkerHandle[], controlBuffer: SharedArrayBuffer, ringExtra: Int32Array, replayLines: boolean): StepDriver {
+function partitionedDriver(plan: Plan, partition: Partition, handles: WorkerHandle[], errors: readonly WorkerError[], controlBuffer: SharedArrayBuffer, ringExtra: Int32Array, replayLines: boolean): StepDriver {
   const K = partition.K;
   const T = partition.threads;
   const layout = { K, nX: plan.x.length, nSlots: plan.slot.length, nParts: plan.parts.length, waveLength: plan.wave.length };
@@ -286,9 +294,8 @@ function partitionedDriver(plan: Plan, partition: Partition, handles: WorkerHand
       const control = new Int32Array(shared.control, 0, CONTROL_WORDS);
       const workers = handles.map((h) => h.worker);
       const finished = handles.map((h) => h.finished);
-      const errorsNow = () => handles.flatMap((h) => h.errors);
       const fail = (): never => {
-        const e = errorsNow()[0] ?? { message: 'a worker stopped' };
+        const e = errors[0] ?? { message: 'a worker stopped' };
         throw new SkeinError(e.code ?? 'E_WORKER', `partitioned run: ${e.message}`, e.details ?? {});
       };
       // Worker start-up (loading, unpacking, compiling) is reported apart from stepping: what
@@ -296,13 +303,13 @@ function partitionedDriver(plan: Plan, partition: Partition, handles: WorkerHand
       const tSetup = performance.now();
       try {
         await Promise.all(handles.map((h) => h.compiled));
-        if (errorsNow().length > 0) fail();
+        if (errors.length > 0) fail();
         handles.forEach((h, t) => {
           const job: WorkerAssignment = { type: 'assignment', self: t, threads: T, K, ringExtra, owner: partition.owner, shared };
           h.worker.postMessage(job);
         });
         await Promise.all(handles.map((h) => h.ready));
-        if (errorsNow().length > 0) fail();
+        if (errors.length > 0) fail();
         io.timing.workerSetup = (performance.now() - tSetup) / 1000;
         const nBlocks = Math.floor(p.nSteps / K) + 1;
         const varyingLoads = [...p.varying.flatMap((v) => v.loads), ...p.nonlinear.flatMap((v) => v.varying)];
@@ -344,7 +351,7 @@ function partitionedDriver(plan: Plan, partition: Partition, handles: WorkerHand
           const t1 = performance.now();
           // This thread sleeps (it is not on the workers' path: they release each other).
           while (Atomics.load(control, DONE) < target) {
-            if (Atomics.load(control, ERROR) !== 0 || errorsNow().length > 0) {
+            if (Atomics.load(control, ERROR) !== 0 || errors.length > 0) {
               await Promise.all(finished);
               fail();
             }
@@ -356,7 +363,7 @@ function partitionedDriver(plan: Plan, partition: Partition, handles: WorkerHand
           Atomics.notify(control, REPLAYED);
         }
         await Promise.all(finished);
-        if (errorsNow().length > 0) fail();
+        if (errors.length > 0) fail();
         handles.forEach((h, t) => {
           // Per-worker stepping and waiting time, for the efficiency figures.
           const m = h.result;

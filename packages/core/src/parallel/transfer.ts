@@ -11,7 +11,7 @@ import { Packr } from 'msgpackr';
 import type { ResolvedScenario } from '../model.ts';
 
 /** A resolved scenario without its `locate` (a closure over the parsed document). */
-export type PortableScenario = Omit<ResolvedScenario, 'locate'> & { locate?: undefined };
+type PortableScenario = Omit<ResolvedScenario, 'locate'> & { locate?: undefined };
 
 const packr = new Packr({ moreTypes: true, useRecords: true });
 
